@@ -1,0 +1,1 @@
+//! Terminations, reflection, two-port networks and cascades (in progress).

@@ -1,0 +1,1 @@
+//! Reflection traces: simulation and analysis (in progress).

@@ -1,0 +1,1 @@
+//! Placeholder for the wasm-bindgen layer of the offline field page.
