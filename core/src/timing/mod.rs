@@ -81,3 +81,20 @@ pub fn distance_from_round_trip<T: Real>(
         hi_m: hi * (t + dt) * h,
     })
 }
+
+/// Half-width of the round-trip-time interval, s.
+///
+/// δt = q + e, a conservative linear sum of
+/// * q, the timing quantisation: half a sample interval for a raw sample
+///   index, an eighth of one when the crossing is interpolated between samples;
+/// * e = t_r/10, the ambiguity of reading an edge of 10–90 % rise time t_r at
+///   its 50 % point (noise and edge shape).
+///
+/// Common practice, no single source; the interval is a worst-case band, not a
+/// standard deviation. Valid: `sample_interval_s > 0`, `rise_time_s ≥ 0`.
+pub fn timing_half_width_s<T: Real>(sample_interval_s: T, interpolated: bool, rise_time_s: T) -> Result<T> {
+    let dt = error::positive(sample_interval_s, "sample_interval_s")?;
+    let tr = error::non_negative(rise_time_s, "rise_time_s")?;
+    let q = if interpolated { dt * T::lit(0.125) } else { dt * T::half() };
+    Ok(q + tr * T::lit(0.1))
+}
