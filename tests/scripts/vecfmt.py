@@ -11,7 +11,7 @@ import numpy
 import scipy
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-OUT = os.path.normpath(os.path.join(HERE, "..", "vectors"))
+OUT = os.environ.get("ECHOLINE_VECTORS_OUT") or os.path.normpath(os.path.join(HERE, "..", "vectors"))
 
 
 def versions():
