@@ -47,6 +47,10 @@ pub trait Real: Float + FloatConst + Copy + Debug + Default + PartialOrd + 'stat
     /// Converts to `f64` for reporting at the edges (host tools, tests); never used
     /// inside computations.
     fn to_f64_lossless(self) -> f64;
+    /// The error function, through libm in this type's own precision.
+    fn erf(self) -> Self;
+    /// The complementary error function 1 − erf, through libm in this type's own precision.
+    fn erfc(self) -> Self;
 
     /// c0 in m/s.
     #[inline(always)]
@@ -107,6 +111,14 @@ impl Real for f32 {
     fn to_f64_lossless(self) -> f64 {
         self as f64
     }
+    #[inline]
+    fn erf(self) -> Self {
+        libm::erff(self)
+    }
+    #[inline]
+    fn erfc(self) -> Self {
+        libm::erfcf(self)
+    }
 }
 
 impl Real for f64 {
@@ -130,6 +142,14 @@ impl Real for f64 {
     #[inline(always)]
     fn to_f64_lossless(self) -> f64 {
         self
+    }
+    #[inline]
+    fn erf(self) -> Self {
+        libm::erf(self)
+    }
+    #[inline]
+    fn erfc(self) -> Self {
+        libm::erfc(self)
     }
 }
 
