@@ -10,6 +10,7 @@ pub mod network;
 pub mod scalar;
 pub mod tdr;
 pub mod timing;
+pub mod units;
 pub mod value;
 
 pub use error::{Error, Result};

@@ -1,0 +1,299 @@
+//! Simulating the trace an instrument would record on a cable.
+//!
+//! The instrument is a Thévenin source (open-circuit voltage `open_circuit_v`
+//! behind `source_impedance_ohm`) driving the cable's input impedance Zin(f); the
+//! voltage it samples at its port is
+//!
+//! V(f) = Vs(f) · H(f),   H(f) = Zin(f) / (Zs + Zin(f)),
+//!
+//! with Zin(f) from the cascade (line sections with loss and dispersion, lumped
+//! discontinuities, the far-end load), so multiple reflections, masking, loss and
+//! dispersion are all in it (e.g. Pozar, *Microwave Engineering*, 4th ed., 2012,
+//! §2.3–2.5 for the divider and the input impedance). An open at the port
+//! (H = 1) is explicit, never NaN.
+//!
+//! **Source.** A step of 10–90 % rise time t_r with a Gaussian edge (its 10–90 %
+//! time is 2·√2·erf⁻¹(0.8)·σ = 2.5631·σ), its 50 % point at `launch_s`; or a
+//! pulse of width w (a step minus a step delayed by w). The Gaussian edge is not
+//! strictly causal; with `launch_s ≥ 4σ` the part before t = 0 is below 3e-5 of
+//! the step (the builder enforces `launch_s ≥ 4σ`).
+//!
+//! **Time axis.** Sample n is at t_n = n·dt; the incident edge's 50 % point is at
+//! `launch_s`, so a reflection from a discontinuity at round-trip delay τ has its
+//! 50 % point at `launch_s + τ`.
+//!
+//! **Evaluation.** The response is split into the part that settles,
+//! v(t) = Vs·[H(0)·s(t) + r(t)], s the source waveform, where
+//! R(f) = (H(f) − H(0))·S(f) decays to zero once the cable's transients settle,
+//! so the inverse FFT of R on M ≥ 2N bins is free of wrap-around when the
+//! transients have died down within M·dt (loss and any matched element make them
+//! die). The DC bin of R is its exact limit from a one-sided difference. The FFT
+//! length M is the caller's buffer length (a power of two, ≥ 2N).
+//!
+//! **Noise.** Optional additive white Gaussian noise of a given RMS, from a
+//! seeded generator (xorshift64* with a Box–Muller pair), for tests and demos.
+//!
+//! Memory: the caller gives the output `&mut [T]` (N samples) and a complex work
+//! buffer of M ≥ 2N entries (16 bytes per entry in f64, 8 in f32); nothing else.
+
+use crate::error::{self, Error, Result};
+use crate::math::complex::{self, Cx};
+use crate::scalar::Real;
+use crate::value::Impedance;
+
+/// Something with an input impedance at a frequency: a cascade ended by its
+/// load, or any one-port.
+pub trait OnePort<T: Real> {
+    /// Input impedance at `freq_hz ≥ 0`.
+    fn input_impedance(&self, freq_hz: T) -> Result<Impedance<T>>;
+}
+
+/// The waveform the instrument launches.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Shape<T> {
+    /// A step.
+    Step,
+    /// A pulse of the given width (s), measured between the 50 % points.
+    Pulse {
+        /// Pulse width, s.
+        width_s: T,
+    },
+}
+
+/// The instrument's source.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Source<T> {
+    /// Step or pulse.
+    pub shape: Shape<T>,
+    /// Open-circuit source voltage (EMF), V. Into a matched line the incident
+    /// level is half of it.
+    pub open_circuit_v: T,
+    /// 10–90 % rise time of the edge, s (> 0).
+    pub rise_time_s: T,
+    /// Source (instrument) impedance, Ω (> 0, real).
+    pub source_impedance_ohm: T,
+    /// Time of the incident edge's 50 % point, s (≥ 4σ of the edge).
+    pub launch_s: T,
+}
+
+/// Additive noise for a simulated trace.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Noise<T> {
+    /// RMS of the white Gaussian noise, V (≥ 0).
+    pub rms_v: T,
+    /// Seed of the generator (any value; 0 is remapped).
+    pub seed: u64,
+}
+
+/// Sampling of the simulated trace.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Sampling<T> {
+    /// Sample interval, s (> 0).
+    pub sample_interval_s: T,
+}
+
+/// 2·√2·erf⁻¹(0.8): the 10–90 % time of a Gaussian edge in units of σ.
+const RISE_PER_SIGMA: f64 = 2.563_103_131_0;
+
+impl<T: Real> Source<T> {
+    /// A step source with a 50 % point at `launch_s`; validates every field.
+    pub fn step(open_circuit_v: T, rise_time_s: T, source_impedance_ohm: T, launch_s: T) -> Result<Self> {
+        let s = Source {
+            shape: Shape::Step,
+            open_circuit_v,
+            rise_time_s,
+            source_impedance_ohm,
+            launch_s,
+        };
+        s.validate()?;
+        Ok(s)
+    }
+
+    /// The σ of the Gaussian edge, s.
+    pub fn sigma_s(&self) -> T {
+        self.rise_time_s / T::lit(RISE_PER_SIGMA)
+    }
+
+    /// Checks every field (see the field docs for the ranges).
+    pub fn validate(&self) -> Result<()> {
+        error::finite(self.open_circuit_v, "open_circuit_v")?;
+        let tr = error::positive(self.rise_time_s, "rise_time_s")?;
+        error::positive(self.source_impedance_ohm, "source_impedance_ohm")?;
+        let launch = error::non_negative(self.launch_s, "launch_s")?;
+        if launch < T::lit(4.0) * tr / T::lit(RISE_PER_SIGMA) {
+            return Err(Error::OutOfRange("launch_s"));
+        }
+        if let Shape::Pulse { width_s } = self.shape {
+            error::positive(width_s, "width_s")?;
+        }
+        Ok(())
+    }
+
+    /// Spectrum of the unit source waveform s(t) times jω (i.e. of its time
+    /// derivative): the Gaussian edge, delayed to the launch, with the pulse's
+    /// trailing edge if any.
+    fn edge_spectrum(&self, freq_hz: T) -> Cx<T> {
+        let sigma = self.sigma_s();
+        let w = T::two_pi() * freq_hz;
+        let mag = (-(w * sigma) * (w * sigma) * T::half()).exp();
+        let delay = complex::phasor_turns(-(freq_hz * self.launch_s));
+        let g = Cx::new(mag * delay.re, mag * delay.im);
+        match self.shape {
+            Shape::Step => g,
+            Shape::Pulse { width_s } => {
+                let tail = complex::phasor_turns(-(freq_hz * width_s));
+                g - g * tail
+            }
+        }
+    }
+
+    /// The unit source waveform s(t) in the time domain (closed form).
+    fn waveform(&self, t_s: T) -> T {
+        let sigma = self.sigma_s();
+        let edge = |t0: T| {
+            let x = (t_s - t0) / (sigma * T::SQRT_2());
+            T::half() * (T::one() + x.erf())
+        };
+        match self.shape {
+            Shape::Step => edge(self.launch_s),
+            Shape::Pulse { width_s } => edge(self.launch_s) - edge(self.launch_s + width_s),
+        }
+    }
+}
+
+/// H(f) = Zin/(Zs + Zin), with an open giving exactly 1.
+fn divider<T: Real, P: OnePort<T> + ?Sized>(port: &P, zs: T, freq_hz: T) -> Result<Cx<T>> {
+    match port.input_impedance(freq_hz)? {
+        Impedance::Open => Ok(Cx::new(T::one(), T::zero())),
+        Impedance::Finite(z) => {
+            let den = z + Cx::new(zs, T::zero());
+            if den.re == T::zero() && den.im == T::zero() {
+                return Err(Error::Undefined("input_impedance"));
+            }
+            Ok(complex::div(z, den))
+        }
+    }
+}
+
+/// Simulates the sampled voltage at the instrument's port.
+///
+/// * `port`: the cable seen from the instrument (a cascade ended by its load).
+/// * `out`: N output samples, t_n = n·`sample_interval_s`.
+/// * `work`: complex work buffer; its length M is the FFT length and must be a
+///   power of two with M ≥ 2N ([`Error::Capacity`] naming `"work"` otherwise).
+///
+/// Errors: invalid source or sampling fields (named), a rise time shorter than
+/// two samples (`OutOfRange("rise_time_s")`: the edge would alias), and any
+/// error of the one-port's evaluation.
+pub fn simulate<T: Real, P: OnePort<T> + ?Sized>(
+    port: &P,
+    source: &Source<T>,
+    sampling: &Sampling<T>,
+    noise: Option<Noise<T>>,
+    out: &mut [T],
+    work: &mut [Cx<T>],
+) -> Result<()> {
+    source.validate()?;
+    let dt = error::positive(sampling.sample_interval_s, "sample_interval_s")?;
+    let n = out.len();
+    if n < 2 {
+        return Err(Error::TooShort { what: "out", needed: 2 });
+    }
+    let m = work.len();
+    if m < 2 * n || !m.is_power_of_two() {
+        return Err(Error::Capacity { what: "work", capacity: m });
+    }
+    if source.rise_time_s < dt + dt {
+        return Err(Error::OutOfRange("rise_time_s"));
+    }
+    let zs = source.source_impedance_ohm;
+    let h0 = divider(port, zs, T::zero())?;
+    let df = T::one() / (T::from_usize(m) * dt);
+    // DC limit of (H(f) − H(0))/(jω): one-sided difference at a tiny frequency.
+    let f_eps = df * T::lit(1e-3);
+    let h_eps = divider(port, zs, f_eps)?;
+    let dc_slope = complex::div(h_eps - h0, Cx::new(T::zero(), T::two_pi() * f_eps));
+    let half = m / 2;
+    // Bins k = 0..=M/2 of R(f) = (H(f) − H(0))·E(f)/(jω), E the edge spectrum.
+    for k in 0..=half {
+        let f = T::from_usize(k) * df;
+        let r = if k == 0 {
+            // E(0) = 1 for a step; a pulse has E(0) = 0 and no DC residual.
+            match source.shape {
+                Shape::Step => dc_slope,
+                Shape::Pulse { .. } => Cx::new(T::zero(), T::zero()),
+            }
+        } else {
+            let h = divider(port, zs, f)?;
+            let e = source.edge_spectrum(f);
+            complex::div((h - h0) * e, Cx::new(T::zero(), T::two_pi() * f))
+        };
+        // Continuous-time spectrum → DFT coefficients: divide by dt.
+        if let Some(slot) = work.get_mut(k) {
+            *slot = Cx::new(r.re / dt, r.im / dt);
+        }
+    }
+    // Hermitian fill for a real time signal.
+    for k in 1..half {
+        let v = work.get(k).copied().unwrap_or_default();
+        if let Some(slot) = work.get_mut(m - k) {
+            *slot = v.conj();
+        }
+    }
+    if let Some(nyq) = work.get_mut(half) {
+        nyq.im = T::zero();
+    }
+    crate::math::fft::inverse_unplanned(work)?;
+    let vs = source.open_circuit_v;
+    let mut rng = noise.map(|nz| Gauss::new(nz.seed));
+    let rms = noise.map(|nz| nz.rms_v).unwrap_or_else(T::zero);
+    error::non_negative(rms, "rms_v")?;
+    for (i, (o, w)) in out.iter_mut().zip(work.iter()).enumerate() {
+        let t = T::from_usize(i) * dt;
+        // inverse_unplanned scales by 1/M; the sum Σ R_k e^{…}·df·M·(1/M)… :
+        // x(t_n) = Σ_k X_k e^{j2πkn/M} df, and X_k/dt·(1/M) = X_k·df.
+        let settled = h0.re * source.waveform(t);
+        let mut v = vs * (settled + w.re);
+        if let Some(g) = rng.as_mut() {
+            v = v + rms * g.next::<T>();
+        }
+        *o = v;
+    }
+    Ok(())
+}
+
+/// Deterministic Gaussian generator: xorshift64* and Box–Muller.
+struct Gauss {
+    state: u64,
+    spare: Option<f32>,
+}
+
+impl Gauss {
+    fn new(seed: u64) -> Self {
+        Gauss {
+            state: if seed == 0 { 0x9E37_79B9_7F4A_7C15 } else { seed },
+            spare: None,
+        }
+    }
+    fn uniform(&mut self) -> f32 {
+        let mut x = self.state;
+        x ^= x >> 12;
+        x ^= x << 25;
+        x ^= x >> 27;
+        self.state = x;
+        let r = x.wrapping_mul(0x2545_F491_4F6C_DD1D);
+        // 24 random bits → (0, 1].
+        ((r >> 40) as f32 + 1.0) / 16_777_216.0
+    }
+    fn next<T: Real>(&mut self) -> T {
+        if let Some(s) = self.spare.take() {
+            return T::from(s).unwrap_or_else(T::zero);
+        }
+        let u1 = self.uniform();
+        let u2 = self.uniform();
+        let r = libm::sqrtf(-2.0 * libm::logf(u1));
+        let (s, c) = libm::sincosf(core::f32::consts::TAU * u2);
+        self.spare = Some(r * s);
+        T::from(r * c).unwrap_or_else(T::zero)
+    }
+}

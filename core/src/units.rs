@@ -1,0 +1,1 @@
+//! Quantities with SI prefixes and units (in progress).
