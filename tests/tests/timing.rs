@@ -12,12 +12,13 @@ use echoline::math::complex::Cx;
 use echoline::timing::calibrate::{velocity_from_one_length, velocity_from_two_lengths};
 use echoline::timing::delay::delays;
 use echoline::timing::edge::{
-    combine_rise_times_rss, correct_round_trip, correct_skin_delay, erfc_inv, ErfcReal, SkinEdge, SkinLoss,
-    StepResponse,
+    combine_rise_times_rss, correct_round_trip, correct_skin_delay, erfc_inv, ErfcReal, SkinEdge,
+    SkinLoss, StepResponse,
 };
 use echoline::timing::presets::Preset;
 use echoline::timing::{
-    distance_from_round_trip, round_trip_from_distance, timing_half_width_s, VelocityKind, VelocityRange,
+    distance_from_round_trip, round_trip_from_distance, timing_half_width_s, VelocityKind,
+    VelocityRange,
 };
 use echoline::{Error, Impedance, Real, Result};
 use echoline_checks::{close, load};
@@ -73,7 +74,10 @@ fn erfc_inv_vs_scipy<T: ErfcReal>(rtol: f64, p_min: f64, p_max: f64) {
             continue;
         }
         let got = f64_of(erfc_inv(lit::<T>(p)).unwrap());
-        assert!(close(got, x, rtol, rtol), "erfc_inv({p}) = {got}, scipy {x}");
+        assert!(
+            close(got, x, rtol, rtol),
+            "erfc_inv({p}) = {got}, scipy {x}"
+        );
         n += 1;
     }
     assert!(n >= 10);
@@ -98,7 +102,11 @@ fn skin_step_vs_scipy<T: ErfcReal>(rtol: f64, atol: f64) {
     for r in t.iter() {
         let e = SkinEdge::new(lit::<T>(r.get("a_sqrt_s"))).unwrap();
         let got = f64_of(e.step(lit::<T>(r.get("tau_s"))).unwrap());
-        assert!(close(got, r.get("v"), rtol, atol), "{got} vs {}", r.get("v"));
+        assert!(
+            close(got, r.get("v"), rtol, atol),
+            "{got} vs {}",
+            r.get("v")
+        );
     }
     let e = SkinEdge::new(lit::<T>(1e-4)).unwrap();
     assert_eq!(f64_of(e.step(lit::<T>(-1e-9)).unwrap()), 0.0);
@@ -117,12 +125,26 @@ fn skin_fraction_vs_scipy<T: ErfcReal>(rtol: f64) {
     for r in t.iter() {
         let e = SkinEdge::new(lit::<T>(r.get("a_sqrt_s"))).unwrap();
         let got = f64_of(e.time_to_fraction_s(lit::<T>(r.get("p"))).unwrap());
-        assert!(close(got, r.get("tau_s"), rtol, 0.0), "{got} vs {}", r.get("tau_s"));
+        assert!(
+            close(got, r.get("tau_s"), rtol, 0.0),
+            "{got} vs {}",
+            r.get("tau_s")
+        );
     }
     // 10–90 % rise time and 50 % delay from the same table (a = 1e-4 √s).
-    let tau = |p: f64| t.iter().find(|r| r.get("a_sqrt_s") == 1e-4 && r.get("p") == p).unwrap().get("tau_s");
+    let tau = |p: f64| {
+        t.iter()
+            .find(|r| r.get("a_sqrt_s") == 1e-4 && r.get("p") == p)
+            .unwrap()
+            .get("tau_s")
+    };
     let e = SkinEdge::new(lit::<T>(1e-4)).unwrap();
-    assert!(close(f64_of(e.rise_time_10_90_s().unwrap()), tau(0.9) - tau(0.1), rtol, 0.0));
+    assert!(close(
+        f64_of(e.rise_time_10_90_s().unwrap()),
+        tau(0.9) - tau(0.1),
+        rtol,
+        0.0
+    ));
     assert!(close(f64_of(e.delay_50_s().unwrap()), tau(0.5), rtol, 0.0));
 }
 
@@ -136,7 +158,11 @@ fn skin_edge_from_loss<T: ErfcReal>(rtol: f64) {
     // α(f)·l = a·√(πf) (Wigington & Nahman 1957): a line of the test model with
     // a_m gives back a_m from its conductor loss at any frequency, and the rise
     // time and 50 % delay grow with the square of the length.
-    let line = SkinLine { delay_s_per_m: lit::<T>(5e-9), a_sqrt_s_per_m: lit::<T>(1e-6), zc_ohm: lit::<T>(50.0) };
+    let line = SkinLine {
+        delay_s_per_m: lit::<T>(5e-9),
+        a_sqrt_s_per_m: lit::<T>(1e-6),
+        zc_ohm: lit::<T>(50.0),
+    };
     for f in [1e6, 1e8, 3e9] {
         let loss = SkinLoss::from_line(&line, lit::<T>(f)).unwrap();
         assert!(close(f64_of(loss.a_sqrt_s_per_m()), 1e-6, rtol, 0.0));
@@ -145,7 +171,10 @@ fn skin_edge_from_loss<T: ErfcReal>(rtol: f64) {
         assert!(close(f64_of(from_db.a_sqrt_s_per_m()), 1e-6, rtol, 0.0));
     }
     let loss = SkinLoss::new(lit::<T>(1e-6)).unwrap();
-    let (e1, e2) = (loss.edge(lit::<T>(100.0)).unwrap(), loss.edge(lit::<T>(300.0)).unwrap());
+    let (e1, e2) = (
+        loss.edge(lit::<T>(100.0)).unwrap(),
+        loss.edge(lit::<T>(300.0)).unwrap(),
+    );
     let r = f64_of(e2.rise_time_10_90_s().unwrap()) / f64_of(e1.rise_time_10_90_s().unwrap());
     assert!(close(r, 9.0, 10.0 * rtol, 0.0), "{r}");
     let r = f64_of(e2.delay_50_s().unwrap()) / f64_of(e1.delay_50_s().unwrap());
@@ -164,7 +193,11 @@ fn skin_edge_from_attenuation() {
 /// closed form erfc(a/(2√(t − T_d))) (Wigington & Nahman 1957).
 fn numerical_vs_closed_form<T: ErfcReal>(n: usize, v_atol: f64, t_rtol: f64) {
     let (td_per_m, a_m, len) = (5e-9, 1e-6, 100.0);
-    let line = SkinLine { delay_s_per_m: lit::<T>(td_per_m), a_sqrt_s_per_m: lit::<T>(a_m), zc_ohm: lit::<T>(50.0) };
+    let line = SkinLine {
+        delay_s_per_m: lit::<T>(td_per_m),
+        a_sqrt_s_per_m: lit::<T>(a_m),
+        zc_ohm: lit::<T>(50.0),
+    };
     let a = a_m * len;
     let td = td_per_m * len;
     // Truncate where α(f)·l = a·√(πf) = 25 Np.
@@ -189,10 +222,20 @@ fn numerical_vs_closed_form<T: ErfcReal>(n: usize, v_atol: f64, t_rtol: f64) {
     let d50 = f64_of(e.t50_s) - td;
     let rise = f64_of(e.rise_10_90_s);
     assert!(close(d50, t50, t_rtol, 0.0), "50 %: {d50:e} vs {t50:e}");
-    assert!(close(rise, closed.rise_time_10_90_s().unwrap(), t_rtol, 0.0), "rise {rise:e}");
+    assert!(
+        close(rise, closed.rise_time_10_90_s().unwrap(), t_rtol, 0.0),
+        "rise {rise:e}"
+    );
     let t10 = f64_of(e.t10_s) - td;
-    assert!(close(t10, closed.time_to_fraction_s(0.1).unwrap(), t_rtol, 0.0), "10 %: {t10:e}");
-    eprintln!("N {n}: worst |v − erfc| {worst:.2e}, 50 % {:.2e}, rise {:.2e} (relative)", d50 / t50 - 1.0, rise / closed.rise_time_10_90_s().unwrap() - 1.0);
+    assert!(
+        close(t10, closed.time_to_fraction_s(0.1).unwrap(), t_rtol, 0.0),
+        "10 %: {t10:e}"
+    );
+    eprintln!(
+        "N {n}: worst |v − erfc| {worst:.2e}, 50 % {:.2e}, rise {:.2e} (relative)",
+        d50 / t50 - 1.0,
+        rise / closed.rise_time_10_90_s().unwrap() - 1.0
+    );
 }
 
 #[test]
@@ -205,7 +248,6 @@ fn numerical_step_response_matches_erfc_f32() {
     numerical_vs_closed_form::<f32>(2048, 2e-5, 5e-5);
 }
 
-
 fn instrument_and_cable_rise<T: ErfcReal>(rtol_gauss: f64) {
     // A zero-phase Gaussian instrument edge on a lossless line: the step is
     // Φ((t − T_d)/σ), so its 10–90 % time is the instrument's and its 50 % point
@@ -213,11 +255,26 @@ fn instrument_and_cable_rise<T: ErfcReal>(rtol_gauss: f64) {
     let line = Lossless::<T>::new(lit(50.0), lit(0.66)).unwrap();
     let tr = 1e-9;
     let mut buf = vec![Cx::new(T::zero(), T::zero()); 1024];
-    let s = StepResponse::new(&line, lit::<T>(10.0), lit::<T>(5.0 / tr), lit::<T>(tr), &mut buf).unwrap();
+    let s = StepResponse::new(
+        &line,
+        lit::<T>(10.0),
+        lit::<T>(5.0 / tr),
+        lit::<T>(tr),
+        &mut buf,
+    )
+    .unwrap();
     let td = 10.0 / (0.66 * C0);
     let e = s.edge().unwrap();
-    assert!((f64_of(e.t50_s) - td).abs() < rtol_gauss * tr, "{:e}", f64_of(e.t50_s) - td);
-    assert!(close(f64_of(e.rise_10_90_s), tr, rtol_gauss, 0.0), "{:e}", f64_of(e.rise_10_90_s));
+    assert!(
+        (f64_of(e.t50_s) - td).abs() < rtol_gauss * tr,
+        "{:e}",
+        f64_of(e.t50_s) - td
+    );
+    assert!(
+        close(f64_of(e.rise_10_90_s), tr, rtol_gauss, 0.0),
+        "{:e}",
+        f64_of(e.rise_10_90_s)
+    );
 
     // The instrument edge on the skin-effect cable against the convolution of
     // the erfc step (Wigington & Nahman 1957) with the Gaussian, computed by
@@ -230,21 +287,42 @@ fn instrument_and_cable_rise<T: ErfcReal>(rtol_gauss: f64) {
     let t = load("timing_skin_gauss");
     for r in t.iter() {
         let (a, tr) = (r.get("a_sqrt_s"), r.get("instrument_rise_s"));
-        let cable = SkinLine { delay_s_per_m: lit::<T>(5e-9), a_sqrt_s_per_m: lit::<T>(a / len), zc_ohm: lit::<T>(50.0) };
+        let cable = SkinLine {
+            delay_s_per_m: lit::<T>(5e-9),
+            a_sqrt_s_per_m: lit::<T>(a / len),
+            zc_ohm: lit::<T>(50.0),
+        };
         let td = 5e-9 * len;
-        let s = StepResponse::new(&cable, lit::<T>(len), lit::<T>(6.0 / tr), lit::<T>(tr), &mut buf).unwrap();
+        let s = StepResponse::new(
+            &cable,
+            lit::<T>(len),
+            lit::<T>(6.0 / tr),
+            lit::<T>(tr),
+            &mut buf,
+        )
+        .unwrap();
         let e = s.edge().unwrap();
         let skin_rise = SkinEdge::new(a).unwrap().rise_time_10_90_s().unwrap();
         let scale = skin_rise.max(tr);
         for (got, col) in [(e.t10_s, "t10_s"), (e.t50_s, "t50_s"), (e.t90_s, "t90_s")] {
             let (got, want) = (f64_of(got) - td, r.get(col));
-            assert!((got - want).abs() <= rtol_gauss * scale, "{col}: {got:e} vs {want:e}");
+            assert!(
+                (got - want).abs() <= rtol_gauss * scale,
+                "{col}: {got:e} vs {want:e}"
+            );
         }
         let both = r.get("t90_s") - r.get("t10_s");
-        assert!(both > skin_rise.max(tr) && both < skin_rise + tr, "{both:e}");
+        assert!(
+            both > skin_rise.max(tr) && both < skin_rise + tr,
+            "{both:e}"
+        );
         let rss = f64_of(combine_rise_times_rss(lit::<T>(skin_rise), lit::<T>(tr)).unwrap());
         assert!(close(rss, both, 0.15, 0.0), "rss {rss:e} vs {both:e}");
-        eprintln!("tr/skin {:.2}: rss/convolution − 1 = {:+.3}", tr / skin_rise, rss / both - 1.0);
+        eprintln!(
+            "tr/skin {:.2}: rss/convolution − 1 = {:+.3}",
+            tr / skin_rise,
+            rss / both - 1.0
+        );
     }
 }
 
@@ -278,10 +356,18 @@ fn presets_hold_their_nominal_and_published_ranges() {
             },
             {
                 let v = VelocityRange::<f32>::from_preset(p);
-                (v.nominal_m_per_s as f64, v.lo_m_per_s as f64, v.hi_m_per_s as f64)
+                (
+                    v.nominal_m_per_s as f64,
+                    v.lo_m_per_s as f64,
+                    v.hi_m_per_s as f64,
+                )
             },
         ] {
-            assert!(close(vn / C0, n, 1e-6, 0.0) && close(vlo / C0, lo, 1e-6, 0.0) && close(vhi / C0, hi, 1e-6, 0.0));
+            assert!(
+                close(vn / C0, n, 1e-6, 0.0)
+                    && close(vlo / C0, lo, 1e-6, 0.0)
+                    && close(vhi / C0, hi, 1e-6, 0.0)
+            );
             assert!(vlo < vn && vn < vhi);
         }
     }
@@ -306,20 +392,32 @@ fn velocity_and_delay_of_skin_line<T: Real>(rtol_phase: f64, rtol_group: f64) {
     // β = ω/v + a_m·√(ω/2), so phase delay β/ω = 1/v + a_m/√(2ω) and group delay
     // dβ/dω = 1/v + a_m/(2·√(2ω)).
     let (v, a_m) = (2.0e8, 1e-6);
-    let line = SkinLine { delay_s_per_m: lit::<T>(1.0 / v), a_sqrt_s_per_m: lit::<T>(a_m), zc_ohm: lit::<T>(50.0) };
+    let line = SkinLine {
+        delay_s_per_m: lit::<T>(1.0 / v),
+        a_sqrt_s_per_m: lit::<T>(a_m),
+        zc_ohm: lit::<T>(50.0),
+    };
     for f in [1e6, 1e8] {
         let w = 2.0 * core::f64::consts::PI * f;
         let pd = 1.0 / v + a_m / (2.0 * w).sqrt();
         let gd = 1.0 / v + a_m / (2.0 * (2.0 * w).sqrt());
         let d = delays(&line, lit::<T>(f), lit::<T>(100.0)).unwrap();
         assert!(close(f64_of(d.phase_delay_s_per_m), pd, rtol_phase, 0.0));
-        assert!(close(f64_of(d.group_delay_s), 100.0 * gd, rtol_group, 0.0), "{} vs {}", f64_of(d.group_delay_s), 100.0 * gd);
-        let vp = VelocityRange::from_line(&line, VelocityKind::PhaseAt(lit::<T>(f)), lit::<T>(0.01)).unwrap();
+        assert!(
+            close(f64_of(d.group_delay_s), 100.0 * gd, rtol_group, 0.0),
+            "{} vs {}",
+            f64_of(d.group_delay_s),
+            100.0 * gd
+        );
+        let vp =
+            VelocityRange::from_line(&line, VelocityKind::PhaseAt(lit::<T>(f)), lit::<T>(0.01))
+                .unwrap();
         assert!(close(f64_of(vp.nominal_m_per_s), 1.0 / pd, rtol_phase, 0.0));
         assert!(close(f64_of(vp.lo_m_per_s), 0.99 / pd, rtol_phase, 0.0));
         assert!(close(f64_of(vp.hi_m_per_s), 1.01 / pd, rtol_phase, 0.0));
         assert_eq!(vp.kind, VelocityKind::PhaseAt(lit::<T>(f)));
-        let vg = VelocityRange::from_line(&line, VelocityKind::GroupAt(lit::<T>(f)), T::zero()).unwrap();
+        let vg =
+            VelocityRange::from_line(&line, VelocityKind::GroupAt(lit::<T>(f)), T::zero()).unwrap();
         assert!(close(f64_of(vg.nominal_m_per_s), 1.0 / gd, rtol_group, 0.0));
         // Group velocity below phase velocity on this line (β/ω falls with ω).
         assert!(f64_of(vg.nominal_m_per_s) > f64_of(vp.nominal_m_per_s));
@@ -338,4 +436,300 @@ fn velocity_and_delay_of_skin_line<T: Real>(rtol_phase: f64, rtol_group: f64) {
 fn velocity_and_delay_from_a_line_model() {
     velocity_and_delay_of_skin_line::<f64>(1e-12, 1e-7);
     velocity_and_delay_of_skin_line::<f32>(1e-5, 1e-2);
+}
+
+// ---------------------------------------------------------------- distance and time
+
+fn distance_time_round_trip<T: Real>(rtol: f64) {
+    // d = v·t/2 (common practice, no single source).
+    let v = VelocityRange::<T>::from_preset(Preset::SolidPe);
+    let dt = timing_half_width_s(lit::<T>(1e-9), true, lit::<T>(2e-9)).unwrap();
+    // ⅛ sample + a tenth of the rise time.
+    assert!(close(f64_of(dt), 0.125e-9 + 0.2e-9, rtol, 0.0));
+    for d in [0.0, 1.0, 123.4, 5000.0] {
+        let t = round_trip_from_distance(lit::<T>(d), T::zero(), &v).unwrap();
+        assert!(close(
+            f64_of(t.t_round_s),
+            2.0 * d / (0.66 * C0),
+            rtol,
+            1e-30
+        ));
+        let back = distance_from_round_trip(t.t_round_s, dt, &v).unwrap();
+        assert!(close(f64_of(back.distance_m), d, rtol, 1e-30));
+        // The interval holds the distance for every velocity in the range and
+        // every time within ±δt.
+        assert!(f64_of(back.lo_m) <= d && d <= f64_of(back.hi_m));
+        for vf in [0.65, 0.66, 0.67] {
+            for s in [-1.0, 0.0, 1.0] {
+                let tt = (f64_of(t.t_round_s) + s * f64_of(dt)).max(0.0);
+                let dd = vf * C0 * tt / 2.0;
+                assert!(
+                    f64_of(back.lo_m) <= dd * (1.0 + rtol)
+                        && dd <= f64_of(back.hi_m) * (1.0 + rtol)
+                );
+            }
+        }
+        // And the time interval of a distance ± 0.5 m.
+        let ti = round_trip_from_distance(lit::<T>(d), lit::<T>(0.5), &v).unwrap();
+        assert!(f64_of(ti.lo_s) <= f64_of(ti.t_round_s) && f64_of(ti.t_round_s) <= f64_of(ti.hi_s));
+        assert!(close(
+            f64_of(ti.hi_s),
+            2.0 * (d + 0.5) / (0.65 * C0),
+            rtol,
+            0.0
+        ));
+        assert!(close(
+            f64_of(ti.lo_s),
+            2.0 * (d - 0.5).max(0.0) / (0.67 * C0),
+            rtol,
+            1e-30
+        ));
+    }
+}
+
+#[test]
+fn distance_and_time_convert_both_ways() {
+    distance_time_round_trip::<f64>(1e-12);
+    distance_time_round_trip::<f32>(1e-5);
+}
+
+fn calibration_recovers<T: Real>(rtol: f64) {
+    // Synthetic times t = t0 + 2L/v (common practice, no single source).
+    let (v, t0) = (1.97e8, 4.2e-9);
+    let t = |l: f64| t0 + 2.0 * l / v;
+    let (l1, l2, dl, dt) = (20.0, 220.0, 0.05, 0.3e-9);
+    let c = velocity_from_two_lengths(
+        lit::<T>(l1),
+        lit::<T>(l2),
+        T::zero(),
+        lit::<T>(t(l1)),
+        lit::<T>(t(l2)),
+        T::zero(),
+    )
+    .unwrap();
+    assert!(close(f64_of(c.velocity.nominal_m_per_s), v, rtol, 0.0));
+    assert!(close(f64_of(c.offset_s), t0, 0.0, rtol * t(l2)));
+    // With every input moved within its tolerance the bounds still hold the truth.
+    for (s1, s2, q1, q2) in [
+        (1.0, -1.0, -1.0, 1.0),
+        (-1.0, 1.0, 1.0, -1.0),
+        (0.5, 0.5, 0.0, 0.0),
+    ] {
+        let c = velocity_from_two_lengths(
+            lit::<T>(l1 + q1 * dl),
+            lit::<T>(l2 + q2 * dl),
+            lit::<T>(dl),
+            lit::<T>(t(l1) + s1 * dt),
+            lit::<T>(t(l2) + s2 * dt),
+            lit::<T>(dt),
+        )
+        .unwrap();
+        let vr = c.velocity;
+        assert!(
+            f64_of(vr.lo_m_per_s) <= v * (1.0 + rtol) && v <= f64_of(vr.hi_m_per_s) * (1.0 + rtol)
+        );
+        assert!(
+            f64_of(c.offset_lo_s) <= t0 + rtol * t(l2)
+                && t0 <= f64_of(c.offset_hi_s) + rtol * t(l2)
+        );
+    }
+    // One length: the offset biases the velocity low by t/(t − t0); subtracting
+    // the offset from the two-length calibration removes it.
+    let one = velocity_from_one_length(lit::<T>(l2), lit::<T>(dl), lit::<T>(t(l2)), lit::<T>(dt))
+        .unwrap();
+    assert!(close(
+        f64_of(one.nominal_m_per_s),
+        v * (t(l2) - t0) / t(l2),
+        rtol,
+        0.0
+    ));
+    let fixed = velocity_from_one_length(
+        lit::<T>(l2),
+        lit::<T>(dl),
+        lit::<T>(t(l2) - t0),
+        lit::<T>(dt),
+    )
+    .unwrap();
+    assert!(close(f64_of(fixed.nominal_m_per_s), v, rtol, 0.0));
+    assert!(f64_of(fixed.lo_m_per_s) < v && v < f64_of(fixed.hi_m_per_s));
+    assert!(close(
+        f64_of(fixed.hi_m_per_s),
+        2.0 * (l2 + dl) / (t(l2) - t0 - dt),
+        rtol,
+        0.0
+    ));
+}
+
+#[test]
+fn calibration_recovers_velocity_and_offset() {
+    calibration_recovers::<f64>(1e-10);
+    calibration_recovers::<f32>(2e-4);
+}
+
+fn skin_correction_recovers<T: ErfcReal>(rtol: f64) {
+    // An open at d on a skin-effect cable read at its 50 % point arrives at
+    // t = 2d/v + τ50(a_m·2d) (Wigington & Nahman 1957); the correction recovers d.
+    let (v, a_m) = (2.0e8, 1e-6);
+    let vr = VelocityRange::<T>::from_m_per_s(
+        lit(v),
+        lit(0.99 * v),
+        lit(1.01 * v),
+        VelocityKind::Factor,
+    )
+    .unwrap();
+    let loss = SkinLoss::new(lit::<T>(a_m)).unwrap();
+    for d in [10.0, 300.0, 2000.0] {
+        let tau50 = SkinEdge::new(a_m * 2.0 * d).unwrap().delay_50_s().unwrap();
+        let t = 2.0 * d / v + tau50;
+        let c = correct_skin_delay(
+            lit::<T>(t),
+            lit::<T>(1e-9),
+            &vr,
+            &loss,
+            lit::<T>(0.1),
+            T::half(),
+        )
+        .unwrap();
+        assert!(
+            close(f64_of(c.distance.distance_m), d, rtol, 0.0),
+            "{d}: {}",
+            f64_of(c.distance.distance_m)
+        );
+        assert!(close(f64_of(c.excess_delay_s), tau50, 10.0 * rtol, 0.0));
+        assert!(f64_of(c.distance.lo_m) < d && d < f64_of(c.distance.hi_m));
+        assert!(f64_of(c.uncorrected.distance_m) > d);
+        // The generic iteration with the closed-form excess delay agrees.
+        let k = SkinEdge::new(lit::<T>(a_m)).unwrap().delay_50_s().unwrap();
+        let g = correct_round_trip(lit::<T>(t), lit::<T>(1e-9), &vr, |x: T| Ok(k * x * x)).unwrap();
+        assert!(close(f64_of(g.distance.distance_m), d, rtol, 0.0));
+    }
+}
+
+#[test]
+fn distance_correction_for_a_slow_edge() {
+    skin_correction_recovers::<f64>(1e-10);
+    skin_correction_recovers::<f32>(1e-4);
+}
+
+#[test]
+fn distance_correction_with_the_numerical_edge() {
+    // The iteration driven by the numerical step response of the skin-effect
+    // test line recovers the distance of a synthetic closed-form reading
+    // (Wigington & Nahman 1957).
+    let (v, a_m, d) = (2.0e8f64, 1e-6, 400.0);
+    let line = SkinLine {
+        delay_s_per_m: 1.0 / v,
+        a_sqrt_s_per_m: a_m,
+        zc_ohm: 50.0,
+    };
+    let t = 2.0 * d / v + SkinEdge::new(a_m * 2.0 * d).unwrap().delay_50_s().unwrap();
+    let vr = VelocityRange::from_m_per_s(v, v, v, VelocityKind::Factor).unwrap();
+    let mut buf = vec![Cx::new(0.0, 0.0); 1024];
+    let mut calls = 0;
+    let c = correct_round_trip(t, 0.0, &vr, |x: f64| {
+        calls += 1;
+        if x <= 0.0 {
+            return Ok(0.0);
+        }
+        let f_max = (25.0 / (a_m * x)).powi(2) / core::f64::consts::PI;
+        let s = StepResponse::new(&line, x, f_max, 0.0, &mut buf)?;
+        Ok((s.time_to_fraction_s(0.5)? - x / v).max(0.0))
+    })
+    .unwrap();
+    assert!(
+        close(c.distance.distance_m, d, 1e-6, 0.0),
+        "{}",
+        c.distance.distance_m
+    );
+    assert!(calls < 100, "{calls}");
+}
+
+// ---------------------------------------------------------------- bad inputs
+
+#[test]
+fn bad_inputs_give_typed_errors() {
+    let v = VelocityRange::<f64>::from_preset(Preset::Ptfe);
+    assert_eq!(
+        round_trip_from_distance(-1.0, 0.0, &v),
+        Err(Error::Negative("distance_m"))
+    );
+    assert_eq!(
+        round_trip_from_distance(1.0, f64::NAN, &v),
+        Err(Error::NonFinite("distance_half_width_m"))
+    );
+    assert_eq!(
+        distance_from_round_trip(f32::INFINITY, 0.0, &Preset::Air.velocity()),
+        Err(Error::NonFinite("t_round_s"))
+    );
+    assert_eq!(
+        VelocityRange::<f64>::from_m_per_s(2e8, 2.1e8, 2.2e8, VelocityKind::Factor),
+        Err(Error::OutOfRange("lo_m_per_s"))
+    );
+    assert_eq!(
+        VelocityRange::<f32>::from_m_per_s(2e8, 1e8, 1.5e8, VelocityKind::Factor),
+        Err(Error::OutOfRange("hi_m_per_s"))
+    );
+    assert_eq!(
+        velocity_from_one_length(0.0f64, 0.0, 1e-6, 0.0),
+        Err(Error::NotPositive("length_m"))
+    );
+    assert_eq!(
+        velocity_from_one_length(10.0f32, 0.0, 1e-9, 1e-9),
+        Err(Error::OutOfRange("t_half_width_s"))
+    );
+    assert_eq!(
+        velocity_from_two_lengths(10.0f64, 20.0, 0.0, 2e-7, 1e-7, 0.0),
+        Err(Error::OutOfRange("t_round2_s"))
+    );
+    assert_eq!(
+        velocity_from_two_lengths(-1.0f64, 20.0, 0.0, 1e-7, 2e-7, 0.0),
+        Err(Error::Negative("length1_m"))
+    );
+    assert_eq!(erfc_inv(-0.5f64), Err(Error::OutOfRange("p")));
+    assert_eq!(
+        SkinEdge::new(1e-5f32).unwrap().time_to_fraction_s(1.0),
+        Err(Error::OutOfRange("fraction"))
+    );
+    assert_eq!(SkinEdge::new(-1e-5f64), Err(Error::Negative("a_sqrt_s")));
+    assert_eq!(
+        SkinLoss::from_alpha(0.1f64, 0.0),
+        Err(Error::NotPositive("freq_hz"))
+    );
+    assert_eq!(
+        combine_rise_times_rss(1e-9f64, -1e-9),
+        Err(Error::Negative("rise_b_s"))
+    );
+    let line = Lossless::<f64>::new(50.0, 0.7).unwrap();
+    let mut small = [Cx::new(0.0, 0.0); 16];
+    assert_eq!(
+        StepResponse::new(&line, 1.0, 1e9, 0.0, &mut small).err(),
+        Some(Error::TooShort {
+            what: "buf",
+            needed: 64
+        })
+    );
+    let mut buf = [Cx::new(0.0f64, 0.0); 64];
+    assert_eq!(
+        StepResponse::new(&line, 1.0, -1e9, 0.0, &mut buf).err(),
+        Some(Error::NotPositive("f_max_hz"))
+    );
+    let s = StepResponse::new(&line, 1.0, 1e9, 1e-9, &mut buf).unwrap();
+    assert_eq!(s.at(f64::NAN), Err(Error::NonFinite("t_s")));
+    assert_eq!(
+        s.time_to_fraction_s(0.0),
+        Err(Error::OutOfRange("fraction"))
+    );
+    let loss = SkinLoss::new(1e-6f64).unwrap();
+    assert_eq!(
+        correct_skin_delay(1e-6, 0.0, &v, &loss, 1.0, 0.5),
+        Err(Error::OutOfRange("loss_relative_tolerance"))
+    );
+    assert_eq!(
+        correct_round_trip(1e-6, 0.0, &v, |_| Ok(-1.0)),
+        Err(Error::Negative("excess_delay_s"))
+    );
+    assert_eq!(
+        delays(&line, 1e6, f64::NAN),
+        Err(Error::NonFinite("length_m"))
+    );
 }

@@ -92,10 +92,10 @@ pub fn velocity_from_two_lengths<T: Real>(
     let two = T::two();
     let d_l = l2 - l1;
     let d_t = t2 - t1;
-    if !(d_l > two * dl) {
+    if d_l <= two * dl {
         return Err(Error::OutOfRange("length2_m"));
     }
-    if !(d_t > two * dt) {
+    if d_t <= two * dt {
         return Err(Error::OutOfRange("t_round2_s"));
     }
     let v = error::finite(two * d_l / d_t, "velocity_m_per_s")?;

@@ -146,7 +146,7 @@ impl<T: Real> VelocityRange<T> {
                 }
             }
         };
-        if !(v > T::zero()) || !v.is_finite() {
+        if v <= T::zero() || !v.is_finite() {
             return Err(Error::Undefined("velocity_m_per_s"));
         }
         Ok(VelocityRange {
