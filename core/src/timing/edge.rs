@@ -16,12 +16,13 @@
 //!
 //! t_p − T_d = a² / (4·[erfc⁻¹(p)]²),
 //!
-//! hence the 10–90 % rise time t_90 − t_10 ≈ 31.4·a² and the 50 % arrival delay
-//! t_50 − T_d ≈ 1.10·a²: both grow with the **square** of the length, and the
+//! hence the 10–90 % rise time t_90 − t_10 ≈ 31.48·a² and the 50 % arrival delay
+//! t_50 − T_d ≈ 1.099·a² (scipy, tests/scripts/vectors_timing.py): both grow with the **square** of the length, and the
 //! edge has a very long tail (it reaches 90 % only after ≈ 171 times its
 //! 10 % delay). [`SkinLoss`] holds a per metre, [`SkinEdge`] for one length.
 //! erfc⁻¹ ([`erfc_inv`]) is solved by Halley's method on erfc from a
-//! closed-form start (Winitzki's approximation of erf⁻¹).
+//! closed-form start (S. Winitzki's 2008 approximation of erf⁻¹, from memory;
+//! it only seeds the iteration, which converges to rounding level).
 //!
 //! # Any line model, numerically
 //!
@@ -77,6 +78,16 @@
 //! any excess-delay function; [`correct_skin_delay`] uses the skin-effect form
 //! e(x) = k·x², k = a_m²/(4·[erfc⁻¹(p)]²), whose solution is closed:
 //! x = 2t/(1/v + √(1/v² + 4kt)). It neglects the instrument's own rise time.
+//! For a reading at a fixed threshold rather than the 50 % point, give
+//! p = threshold / (the event's settled step height).
+//!
+//! # Precision
+//!
+//! Everything runs in the scalar's own precision. In `f32` the phase of
+//! H(f)·e^(j2πf·T_ref) is formed in turns from βl/2π and f·T_ref, each of the
+//! order of f_max·T_d turns, so its rounding error is about f_max·T_d·2⁻²⁴
+//! turns (1 km of cable at 10 GHz: ≈ 3e-3 turns); the checks show f32 times
+//! within ≈ 5e-6 relative for a 100 m line.
 
 use crate::error::{self, Error, Result};
 use crate::line::LineModel;
@@ -206,7 +217,10 @@ impl<T: ErfcReal> SkinLoss<T> {
 
     /// From a line model's **conductor** loss at `freq_hz > 0` (the conductor
     /// part of [`crate::line::LinePoint::loss_split_np_per_m`]; the dielectric
-    /// loss grows as f, not √f, and is not part of this model).
+    /// loss grows as f, not √f, and is not part of this model). The fit holds
+    /// at that one frequency: pick one in the band that shapes the edge
+    /// (around 0.35/rise time); where R tends to its DC value a line is not
+    /// pure skin effect, and [`StepResponse`] is the better tool.
     pub fn from_line<M: LineModel<T> + ?Sized>(model: &M, freq_hz: T) -> Result<Self> {
         let f = error::positive(freq_hz, "freq_hz")?;
         let (ac, _) = model.at(f)?.loss_split_np_per_m();
@@ -389,8 +403,15 @@ impl<'a, T: ErfcReal> StepResponse<'a, T> {
     fn eval(&self, tau: T) -> T {
         // Richardson: the Filon sum has an O(h²) error; combine the full grid
         // with the grid of every other point, (4·I_N − I_(N/2))/3.
-        let fine = self.integral(tau, 1);
-        let coarse = self.integral(tau, 2);
+        let all = self.g.iter().enumerate().map(|(i, &g)| (i + 1, g));
+        let fine = self.integral(tau, all);
+        let even = self
+            .g
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| i & 1 == 1)
+            .map(|(i, &g)| (i + 1, g));
+        let coarse = self.integral(tau, even);
         let acc = (fine * T::lit(4.0) - coarse) / T::lit(3.0);
         // The subtracted H(0)·e^(−(f/f_w)²) is the zero-phase Gaussian step
         // Φ(τ/σ_w) = ½·erfc(−τ/(√2·σ_w)), √2·σ_w = 1/(π·f_w).
@@ -399,25 +420,22 @@ impl<'a, T: ErfcReal> StepResponse<'a, T> {
         step + acc / T::PI()
     }
 
-    /// Im ∫ g(f)·e^(j2πfτ) df over the grid points k = stride, 2·stride, … ≤ N.
-    fn integral(&self, tau: T, stride: usize) -> T {
+    /// Im ∫ g(f)·e^(j2πfτ) df over the given grid points (k, g(f_k)), k increasing.
+    fn integral<I: Iterator<Item = (usize, Cx<T>)>>(&self, tau: T, mut pts: I) -> T {
         let nf = T::from_usize(self.g.len());
         let fk = |k: usize| {
             let u = T::from_usize(k) / nf;
             self.f_max_hz * u.powi(GRID_POWER)
         };
-        let mut pts = self.g.iter().skip(stride - 1).step_by(stride);
         let mut acc = Cx::new(T::zero(), T::zero());
         // First panel [0, f_s], g ∝ f^(−1/2): ∫ = 2·f_s·g_s·∫₀¹ e^(jθy²) dy, θ = 2π·f_s·τ.
-        let Some(&g1) = pts.next() else {
+        let Some((k1, g1)) = pts.next() else {
             return T::zero();
         };
-        let mut k = stride;
-        let mut f_a = fk(k);
+        let mut f_a = fk(k1);
         acc = acc + g1 * first_panel(T::two_pi() * f_a * tau) * (f_a + f_a);
         let mut g_a = g1;
-        for &g_b in pts {
-            k += stride;
+        for (k, g_b) in pts {
             let f_b = fk(k);
             let h = f_b - f_a;
             let (e0, e1) = filon_weights(h * tau);
