@@ -25,6 +25,26 @@
 //! Both ends are monotone in every input, so the band holds every combination
 //! of a velocity in the range and a time (distance) in its half-width.
 //!
+//! The rise time to give [`timing_half_width_s`] is that of the edge as read at
+//! the event: the instrument's own edge slowed by the cable, for example
+//! [`edge::combine_rise_times_rss`] of the instrument's rise time and
+//! [`edge::SkinEdge::rise_time_10_90_s`] for the round-trip path. On a long
+//! lossy cable the 50 % point also arrives late: [`edge::correct_skin_delay`]
+//! and [`edge::correct_round_trip`] remove that excess delay.
+//!
+//! ```
+//! use echoline::timing::{distance_from_round_trip, timing_half_width_s, VelocityRange};
+//! use echoline::timing::presets::Preset;
+//!
+//! let v = VelocityRange::<f32>::from_preset(Preset::SolidPe); // VF 0.65–0.67
+//! // 1 ns samples, interpolated crossing, 2 ns edge: δt = 0.125 + 0.2 ns.
+//! let dt = timing_half_width_s(1e-9, true, 2e-9)?;
+//! let d = distance_from_round_trip(1.0e-6, dt, &v)?; // ≈ 98.9 m
+//! assert!(d.lo_m < d.distance_m && d.distance_m < d.hi_m);
+//! assert!((d.distance_m - 98.93).abs() < 0.01);
+//! # Ok::<(), echoline::Error>(())
+//! ```
+//!
 //! # Submodules
 //! * [`delay`]: phase and group delay of a line model at a frequency.
 //! * [`presets`]: velocity-factor ranges by dielectric (common practice).
