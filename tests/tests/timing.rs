@@ -13,9 +13,10 @@ use echoline::timing::calibrate::{velocity_from_one_length, velocity_from_two_le
 use echoline::timing::delay::delays;
 use echoline::timing::edge::{
     combine_rise_times_rss, correct_round_trip, correct_skin_delay, erfc_inv, ErfcReal, SkinEdge,
-    SkinLoss, StepResponse,
+    SkinLoss,
 };
 use echoline::timing::presets::Preset;
+use echoline::timing::step::StepResponse;
 use echoline::timing::{
     distance_from_round_trip, round_trip_from_distance, timing_half_width_s, VelocityKind,
     VelocityRange,

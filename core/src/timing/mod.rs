@@ -49,14 +49,15 @@
 //! * [`delay`]: phase and group delay of a line model at a frequency.
 //! * [`presets`]: velocity-factor ranges by dielectric (common practice).
 //! * [`calibrate`]: velocity from one or two cables of known length.
-//! * [`edge`]: skin-effect edge (Wigington & Nahman 1957) in closed form, the
-//!   numerical step response of any line model, and the correction of a
-//!   distance read on a long lossy cable.
+//! * [`edge`]: skin-effect edge (Wigington & Nahman 1957) in closed form and
+//!   the correction of a distance read on a long lossy cable.
+//! * [`step`]: the numerical step response of any line model after a length.
 
 pub mod calibrate;
 pub mod delay;
 pub mod edge;
 pub mod presets;
+pub mod step;
 
 use crate::error::{self, Error, Result};
 use crate::line::{self, LineModel};
