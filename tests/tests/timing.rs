@@ -12,8 +12,7 @@ use echoline::math::complex::Cx;
 use echoline::timing::calibrate::{velocity_from_one_length, velocity_from_two_lengths};
 use echoline::timing::delay::delays;
 use echoline::timing::edge::{
-    combine_rise_times_rss, correct_round_trip, correct_skin_delay, erfc_inv, ErfcReal, SkinEdge,
-    SkinLoss,
+    combine_rise_times_rss, correct_round_trip, correct_skin_delay, erfc_inv, SkinEdge, SkinLoss,
 };
 use echoline::timing::presets::Preset;
 use echoline::timing::step::StepResponse;
@@ -66,7 +65,7 @@ fn f64_of<T: Real>(x: T) -> f64 {
 
 // ---------------------------------------------------------------- erfc and the closed form
 
-fn erfc_inv_vs_scipy<T: ErfcReal>(rtol: f64, p_min: f64, p_max: f64) {
+fn erfc_inv_vs_scipy<T: Real>(rtol: f64, p_min: f64, p_max: f64) {
     let t = load("timing_erfcinv");
     let mut n = 0;
     for r in t.iter() {
@@ -97,7 +96,7 @@ fn erfc_inv_matches_scipy_f32() {
     erfc_inv_vs_scipy::<f32>(2e-6, 1e-30, 1.9);
 }
 
-fn skin_step_vs_scipy<T: ErfcReal>(rtol: f64, atol: f64) {
+fn skin_step_vs_scipy<T: Real>(rtol: f64, atol: f64) {
     // Wigington & Nahman 1957: v = erfc(a/(2√τ)); scipy.special.erfc.
     let t = load("timing_skin_step");
     for r in t.iter() {
@@ -120,7 +119,7 @@ fn skin_step_matches_erfc() {
     skin_step_vs_scipy::<f32>(2e-5, 1e-30);
 }
 
-fn skin_fraction_vs_scipy<T: ErfcReal>(rtol: f64) {
+fn skin_fraction_vs_scipy<T: Real>(rtol: f64) {
     // Wigington & Nahman 1957: t_p − T_d = a²/(4·erfcinv(p)²); scipy.special.erfcinv.
     let t = load("timing_skin_fraction");
     for r in t.iter() {
@@ -155,7 +154,7 @@ fn skin_time_to_fraction_matches_closed_form() {
     skin_fraction_vs_scipy::<f32>(2e-5);
 }
 
-fn skin_edge_from_loss<T: ErfcReal>(rtol: f64) {
+fn skin_edge_from_loss<T: Real>(rtol: f64) {
     // α(f)·l = a·√(πf) (Wigington & Nahman 1957): a line of the test model with
     // a_m gives back a_m from its conductor loss at any frequency, and the rise
     // time and 50 % delay grow with the square of the length.
@@ -192,7 +191,7 @@ fn skin_edge_from_attenuation() {
 
 /// The numerical step response of the pure skin-effect line against the
 /// closed form erfc(a/(2√(t − T_d))) (Wigington & Nahman 1957).
-fn numerical_vs_closed_form<T: ErfcReal>(n: usize, v_atol: f64, t_rtol: f64) {
+fn numerical_vs_closed_form<T: Real>(n: usize, v_atol: f64, t_rtol: f64) {
     let (td_per_m, a_m, len) = (5e-9, 1e-6, 100.0);
     let line = SkinLine {
         delay_s_per_m: lit::<T>(td_per_m),
@@ -249,7 +248,7 @@ fn numerical_step_response_matches_erfc_f32() {
     numerical_vs_closed_form::<f32>(2048, 2e-5, 5e-5);
 }
 
-fn instrument_and_cable_rise<T: ErfcReal>(rtol_gauss: f64) {
+fn instrument_and_cable_rise<T: Real>(rtol_gauss: f64) {
     // A zero-phase Gaussian instrument edge on a lossless line: the step is
     // Φ((t − T_d)/σ), so its 10–90 % time is the instrument's and its 50 % point
     // is T_d (property of the Gaussian, exact).
@@ -567,7 +566,7 @@ fn calibration_recovers_velocity_and_offset() {
     calibration_recovers::<f32>(2e-4);
 }
 
-fn skin_correction_recovers<T: ErfcReal>(rtol: f64) {
+fn skin_correction_recovers<T: Real>(rtol: f64) {
     // An open at d on a skin-effect cable read at its 50 % point arrives at
     // t = 2d/v + τ50(a_m·2d) (Wigington & Nahman 1957); the correction recovers d.
     let (v, a_m) = (2.0e8, 1e-6);

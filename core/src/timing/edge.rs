@@ -42,33 +42,6 @@ use crate::line::LineModel;
 use crate::scalar::Real;
 use crate::timing::{Distance, VelocityRange};
 
-mod sealed {
-    pub trait Sealed {}
-    impl Sealed for f32 {}
-    impl Sealed for f64 {}
-}
-
-/// The scalar types with a complementary error function: `f32` (`libm::erfcf`,
-/// no double precision) and `f64` (`libm::erfc`). Sealed.
-pub trait ErfcReal: Real + sealed::Sealed {
-    /// erfc(x) = 1 − erf(x).
-    fn erfc(self) -> Self;
-}
-
-impl ErfcReal for f32 {
-    #[inline]
-    fn erfc(self) -> Self {
-        libm::erfcf(self)
-    }
-}
-
-impl ErfcReal for f64 {
-    #[inline]
-    fn erfc(self) -> Self {
-        libm::erfc(self)
-    }
-}
-
 /// 2/√π.
 const TWO_OVER_SQRT_PI: f64 = core::f64::consts::FRAC_2_SQRT_PI;
 
@@ -79,7 +52,7 @@ const TWO_OVER_SQRT_PI: f64 = core::f64::consts::FRAC_2_SQRT_PI;
 /// with 1 − z² = p(2 − p) computed without cancellation; then Halley's
 /// iteration on f(x) = erfc(x) − p, using f″ = −2x·f′:
 /// x ← x − f/(f′ + x·f). erfc⁻¹(2 − p) = −erfc⁻¹(p).
-pub fn erfc_inv<T: ErfcReal>(p: T) -> Result<T> {
+pub fn erfc_inv<T: Real>(p: T) -> Result<T> {
     let p = error::finite(p, "p")?;
     let two = T::two();
     if !(p >= T::min_positive_value() && p < two) {
@@ -139,7 +112,7 @@ pub struct SkinLoss<T> {
     a_sqrt_s_per_m: T,
 }
 
-impl<T: ErfcReal> SkinLoss<T> {
+impl<T: Real> SkinLoss<T> {
     /// From a_m directly, √s/m (finite, ≥ 0).
     pub fn new(a_sqrt_s_per_m: T) -> Result<Self> {
         Ok(SkinLoss {
@@ -192,7 +165,7 @@ pub struct SkinEdge<T> {
     a_sqrt_s: T,
 }
 
-impl<T: ErfcReal> SkinEdge<T> {
+impl<T: Real> SkinEdge<T> {
     /// From a (√s), finite and ≥ 0.
     pub fn new(a_sqrt_s: T) -> Result<Self> {
         Ok(SkinEdge {
@@ -348,7 +321,7 @@ pub fn correct_round_trip<T: Real, F: FnMut(T) -> Result<T>>(
 /// of x/v + k·x² = t, k = a_m²/(4·[erfc⁻¹(p)]²), x = 2t/(1/v + √(1/v² + 4kt)).
 /// The interval takes the lower end with (v_lo, t − δt, highest loss) and the
 /// upper end with (v_hi, t + δt, lowest loss).
-pub fn correct_skin_delay<T: ErfcReal>(
+pub fn correct_skin_delay<T: Real>(
     t_round_s: T,
     t_half_width_s: T,
     velocity: &VelocityRange<T>,

@@ -60,7 +60,6 @@ use crate::error::{self, Error, Result};
 use crate::line::LineModel;
 use crate::math::complex::{self, Cx};
 use crate::scalar::Real;
-use crate::timing::edge::ErfcReal;
 
 /// The 10 %, 50 % and 90 % crossings of a step, s.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -94,7 +93,7 @@ pub struct StepResponse<'a, T> {
     h0: T,
 }
 
-impl<'a, T: ErfcReal> StepResponse<'a, T> {
+impl<'a, T: Real> StepResponse<'a, T> {
     /// Samples H(f) = e^(−γ(f)·`length_m`) (times the Gaussian instrument
     /// response of `instrument_rise_time_s ≥ 0`, 0 for none) on
     /// f_k = `f_max_hz`·(k/N)⁶, N = `buf.len()` ≥ 64 (`Error::TooShort`
