@@ -209,7 +209,9 @@ impl<T: Real> Conductor<T> {
         freq_hz > self.thin_lo_hz && freq_hz < self.thin_hi_hz
     }
 
-    /// Z_int at f ≥ 0, no checks. √(1 + jx) = p + j·x/(2p), p = √((1 + √(1 + x²))/2).
+    /// Z_int at f ≥ 0, no checks. √(1 + jx) = p + j·q with m = √(1 + x²),
+    /// p = √((1 + m)/2) and q = x/(2p) = x·p/(1 + m): the division runs beside
+    /// the second square root instead of after it.
     #[inline]
     pub(crate) fn eval(&self, freq_hz: T) -> Cx<T> {
         let x = freq_hz * self.inv_fc;
@@ -219,11 +221,10 @@ impl<T: Real> Conductor<T> {
         } else {
             x + T::half() / x
         };
-        let p = (T::half() * (one + m)).sqrt();
-        Cx::new(
-            self.r_dc_ohm_per_m * p,
-            self.r_dc_ohm_per_m * (T::half() * x / p),
-        )
+        let s = one + m;
+        let p = (T::half() * s).sqrt();
+        let d = x / s;
+        Cx::new(self.r_dc_ohm_per_m * p, self.r_dc_ohm_per_m * (p * d))
     }
 
     /// Internal impedance per metre at `freq_hz` ≥ 0, Ω/m.

@@ -40,7 +40,7 @@ use crate::error::{self, Error, Result};
 use crate::line::conductor::Conductor;
 use crate::line::dielectric::Dielectric;
 use crate::line::{LineModel, LinePoint, Warnings};
-use crate::math::complex::{self, Cx};
+use crate::math::complex::Cx;
 use crate::scalar::Real;
 use crate::value::Impedance;
 
@@ -62,7 +62,7 @@ pub struct Rlgc<T> {
     base_warnings: Warnings,
     has_tube: bool,
     zc_dc: Option<Cx<T>>,
-    // |Z|, |Y| bounds inside which √(ZY) and Z/γ are computed without scaling.
+    // Bounds on max(|Re ZY|, |Im ZY|) for the unscaled fast path.
     safe_lo: T,
     safe_hi: T,
 }
@@ -140,7 +140,7 @@ impl<T: Real> RlgcBuilder<T> {
             Warnings::NON_CAUSAL_DIELECTRIC,
         );
         let has_tube = self.conductors.iter().flatten().any(|c| c.is_tube());
-        // Products of two values each within [√min, √max]/4 neither overflow nor underflow.
+        // |ZY| within [4√min, √max/4]: its squared modulus neither overflows nor underflows.
         let safe_hi = T::max_value().sqrt() * T::lit(0.25);
         let safe_lo = T::min_positive_value().sqrt() * T::lit(4.0);
         Ok(Rlgc {
@@ -253,12 +253,6 @@ impl<T: Real> Rlgc<T> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         Ok(self.c_vac * self.dielectric.eval(f).0)
     }
-
-    #[inline]
-    fn in_safe(&self, z: Cx<T>) -> bool {
-        let m = z.re.abs().max(z.im.abs());
-        m > self.safe_lo && m < self.safe_hi
-    }
 }
 
 impl<T: Real> LineModel<T> for Rlgc<T> {
@@ -266,15 +260,39 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let z = self.z_of(f);
         let y = self.y_of(f);
-        let mut point = if self.in_safe(z) && self.in_safe(y) {
-            // γ = √(ZY), Zc = Z/γ (see the module docs for the branches).
-            let gamma = complex::sqrt(z * y);
+        let p = z * y;
+        let big = p.re.abs().max(p.im.abs());
+        let mut point = if big > self.safe_lo && big < self.safe_hi {
+            // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
+            // (|γ|² = |ZY|). With m = |ZY| and t = √((|Re| + m)/2), the small
+            // part of the root is |Im ZY|/(2t) = |Im ZY|·t/(|Re| + m), so one
+            // division 1/((|Re| + m)·m) serves both it and 1/m, and runs beside
+            // the second square root. The squares cannot overflow inside these bounds.
+            let m = (p.re * p.re + p.im * p.im).sqrt();
+            let s = p.re.abs() + m;
+            let t = (T::half() * s).sqrt();
+            let inv = T::one() / (s * m);
+            let small = p.im.abs() * t * (m * inv);
+            let inv_m = s * inv;
+            let gamma = if p.re >= T::zero() {
+                Cx::new(
+                    t,
+                    if p.im.is_sign_negative() {
+                        -small
+                    } else {
+                        small
+                    },
+                )
+            } else {
+                Cx::new(small, if p.im.is_sign_negative() { -t } else { t })
+            };
+            let zc = z * gamma.conj();
             LinePoint {
                 freq_hz: f,
                 z_ohm_per_m: z,
                 y_s_per_m: y,
                 gamma_per_m: gamma,
-                zc_ohm: Impedance::from_complex(complex::div(z, gamma)),
+                zc_ohm: Impedance::from_complex(Cx::new(zc.re * inv_m, zc.im * inv_m)),
                 model_loss_split_np_per_m: None,
                 warnings: Warnings::NONE,
             }
