@@ -31,10 +31,12 @@
 //! [`Warnings::NON_CAUSAL_DIELECTRIC`] for a constant dielectric with tanδ > 0,
 //! [`Warnings::THIN_CONDUCTOR`] from tube conductors.
 //!
-//! Cost: everything frequency-independent is computed at construction; `at`
-//! does per conductor two real square roots and a division, one complex square
-//! root and one complex division for γ and Zc, plus one `ln` and one `atan` for
-//! the wideband Debye dielectric. Size: `size_of::<Rlgc<f64>>()` ≤ 256 bytes.
+//! Cost: everything frequency-independent is computed at construction. `at`
+//! does, per conductor, two real square roots and one division; for γ and Zc
+//! two real square roots and one division (γ = √(ZY) by the principal root,
+//! Zc = Z·conj(γ)/|ZY|); plus one `ln` and one `atan` for the wideband Debye
+//! dielectric. No state is kept between calls. Size: `size_of::<Rlgc<f64>>()`
+//! ≤ 320 bytes, `Rlgc<f32>` ≤ 160 bytes.
 
 use crate::error::{self, Error, Result};
 use crate::line::conductor::Conductor;
@@ -412,6 +414,12 @@ mod tests {
             .warnings
             .contains(Warnings::HIGH_LOSS));
         assert!(!line.at(1e9).unwrap().warnings.contains(Warnings::HIGH_LOSS));
+    }
+
+    #[test]
+    fn size_is_as_documented() {
+        assert!(core::mem::size_of::<Rlgc<f64>>() <= 320);
+        assert!(core::mem::size_of::<Rlgc<f32>>() <= 160);
     }
 
     #[test]
