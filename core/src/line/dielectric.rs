@@ -36,7 +36,8 @@
 //! Evaluation of the logarithm: with b = f/f1 and r = f1/f2 (a constant),
 //! ln[(ω2 + jω)/(ω1 + jω)] = ln(ω2/ω1) + ½·ln[(1 + r²b²)/(1 + b²)]
 //! − j·atan[b(1 − r)/(1 + r·b²)], written so that nothing overflows for any
-//! finite f and only one `ln` and one `atan` are needed per frequency.
+//! finite f (b ≥ 10⁹ is rewritten in 1/b) and one `ln`, one `atan` and one or
+//! two divisions are needed per frequency.
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::Cx;
@@ -187,20 +188,40 @@ impl<T: Real> WidebandDebye<T> {
         let one = T::one();
         let b = freq_hz * self.inv_f1;
         // ½·ln[(1 + r²b²)/(1 + b²)] and atan[b(1 − r)/(1 + r b²)], overflow-free.
+        // With d1 = 1 + b², d2 = 1 + r·b²: ratio = (1 + r²b²)/d1 and the atan
+        // argument b(1 − r)/d2; one division 1/(d1·d2) gives both 1/d1 and 1/d2.
         let (half_log, phase) = if b < one {
+            // d1, d2 in [1, 2); ln_1p keeps the small ln(ratio) accurate.
             let b2 = b * b;
-            let x = -b2 * self.one_minus_r2 / (one + b2);
+            let (d1, d2) = (one + b2, one + self.r * b2);
+            let inv = one / (d1 * d2);
+            let x = -b2 * self.one_minus_r2 * (d2 * inv);
             (
                 T::half() * x.ln_1p(),
-                (b * self.one_minus_r / (one + self.r * b2)).atan(),
+                (b * self.one_minus_r * (d1 * inv)).atan(),
             )
-        } else {
-            let u = one / b;
-            let u2 = u * u;
-            let ratio = (u2 + self.r * self.r) / (u2 + one);
+        } else if b < T::lit(1e9) {
+            // d1·d2 ≤ 10³⁶: finite in f32 too; ratio ∈ [r², 1), no cancellation.
+            let b2 = b * b;
+            let (d1, d2) = (one + b2, one + self.r * b2);
+            let inv = one / (d1 * d2);
+            let rb = self.r * b;
+            let ratio = (one + rb * rb) * (d2 * inv);
             (
                 T::half() * ratio.ln(),
-                (self.one_minus_r / (u + self.r * b)).atan(),
+                (b * self.one_minus_r * (d1 * inv)).atan(),
+            )
+        } else {
+            // u = 1/b: ratio = (u² + r²)/(u² + 1), atan argument (1 − r)·u/(u² + r);
+            // d1 = u² + 1 ∈ (1, 2], d2 = u² + r ∈ [r, 2]: nothing overflows.
+            let u = one / b;
+            let u2 = u * u;
+            let (d1, d2) = (u2 + one, u2 + self.r);
+            let inv = one / (d1 * d2);
+            let ratio = (u2 + self.r * self.r) * (d2 * inv);
+            (
+                T::half() * ratio.ln(),
+                (self.one_minus_r * u * (d1 * inv)).atan(),
             )
         };
         // ε = ε∞ + k·(L + half_log − j·phase), k = Δε/L.

@@ -79,15 +79,19 @@ pub struct RlgcBuilder<T> {
     dielectric: Dielectric<T>,
     conductors: [Option<Conductor<T>>; MAX_CONDUCTORS],
     overflow: bool,
+    // The API name of the capacitance given, for errors.
+    c_param: &'static str,
 }
 
 impl<T: Real> RlgcBuilder<T> {
-    /// Adds a frequency-independent series resistance (Ω/m, ≥ 0).
+    /// Sets a frequency-independent series resistance R0 (Ω/m, ≥ 0; default 0),
+    /// in addition to the conductors.
     pub fn series_r(mut self, r_ohm_per_m: T) -> Self {
         self.r0 = r_ohm_per_m;
         self
     }
-    /// Adds a frequency-independent shunt conductance (S/m, ≥ 0).
+    /// Sets a frequency-independent shunt conductance (S/m, ≥ 0; default 0), in
+    /// addition to the dielectric's loss and conductivity.
     pub fn shunt_g(mut self, g_s_per_m: T) -> Self {
         self.g_dc = g_s_per_m;
         self
@@ -116,7 +120,7 @@ impl<T: Real> RlgcBuilder<T> {
             });
         }
         let l_ext = error::positive(self.l_ext, "l_ext_h_per_m")?;
-        let c_vac = error::positive(self.c_vac, "c_vac_f_per_m")?;
+        let c_vac = error::positive(self.c_vac, self.c_param)?;
         let r0 = error::non_negative(self.r0, "r_ohm_per_m")?;
         let g_user = error::non_negative(self.g_dc, "g_s_per_m")?;
         let sigma = self.dielectric.conductivity_s_per_m();
@@ -130,7 +134,7 @@ impl<T: Real> RlgcBuilder<T> {
         let c_dc = c_vac * self.dielectric.eps_static();
         let zc_dc = if r_dc == T::zero() && g_dc == T::zero() {
             Some(Cx::new(
-                error::finite((l_ext / c_dc).sqrt(), "c_vac_f_per_m")?,
+                error::finite((l_ext / c_dc).sqrt(), self.c_param)?,
                 T::zero(),
             ))
         } else {
@@ -175,6 +179,23 @@ impl<T: Real> Rlgc<T> {
             dielectric: Dielectric::vacuum(),
             conductors: [None; MAX_CONDUCTORS],
             overflow: false,
+            c_param: "c_vac_f_per_m",
+        }
+    }
+
+    /// Starts a builder from L_ext (H/m) and the capacitance C (F/m) the line
+    /// has **at DC** with `dielectric`: C_vac = C/εs (εs the static permittivity,
+    /// εr for [`Dielectric::constant`]). For a user-given C and tanδ this is the
+    /// usual constant-loss-tangent line, Y = ωC·tanδ + jωC.
+    pub fn builder_from_c(
+        l_ext_h_per_m: T,
+        c_f_per_m: T,
+        dielectric: Dielectric<T>,
+    ) -> RlgcBuilder<T> {
+        RlgcBuilder {
+            c_param: "c_f_per_m",
+            ..Self::builder(l_ext_h_per_m, c_f_per_m / dielectric.eps_static())
+                .dielectric(dielectric)
         }
     }
 
@@ -258,6 +279,7 @@ impl<T: Real> Rlgc<T> {
 }
 
 impl<T: Real> LineModel<T> for Rlgc<T> {
+    #[inline]
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let z = self.z_of(f);
@@ -414,6 +436,25 @@ mod tests {
             .warnings
             .contains(Warnings::HIGH_LOSS));
         assert!(!line.at(1e9).unwrap().warnings.contains(Warnings::HIGH_LOSS));
+    }
+
+    #[test]
+    fn builder_from_c_gives_constant_loss_tangent() {
+        let d = Dielectric::constant(2.25, 1e-3).unwrap();
+        let line = Rlgc::<f64>::builder_from_c(250e-9, 100e-12, d)
+            .build()
+            .unwrap();
+        for &f in &[1e3, 1e6, 1e9] {
+            let p = line.at(f).unwrap();
+            let wc = core::f64::consts::TAU * f * 100e-12;
+            assert_relative_eq!(p.y_s_per_m.im, wc, max_relative = 1e-14);
+            assert_relative_eq!(p.y_s_per_m.re, wc * 1e-3, max_relative = 1e-14);
+            assert!(p.warnings.contains(Warnings::NON_CAUSAL_DIELECTRIC));
+        }
+        assert_eq!(
+            Rlgc::<f64>::builder_from_c(250e-9, f64::NAN, d).build(),
+            Err(Error::NonFinite("c_f_per_m"))
+        );
     }
 
     #[test]
