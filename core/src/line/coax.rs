@@ -20,6 +20,21 @@
 //! Valid: 0 < d < D, t > 0, finite; single-mode below the TE11 cutoff.
 //! (The TE11 cutoff, its warning and synthesis of d/D for a target Z0 are not
 //! in this module yet: [`LineModel::cutoff_hz`] returns `None` for now.)
+//!
+//! ```
+//! use echoline::line::coax::Coax;
+//! use echoline::line::dielectric::Dielectric;
+//! use echoline::LineModel;
+//!
+//! // Solid-PE coax, copper, causal dielectric fitted at 1 GHz.
+//! let pe = Dielectric::wideband_debye(2.25, 2e-4, 1e9)?;
+//! let coax = Coax::<f64>::new(0.9e-3, 2.95e-3, pe, 5.8e7, 0.2e-3)?;
+//! let p = coax.at(100e6)?;
+//! let zc = p.zc_ohm.finite().unwrap();
+//! assert!((zc.re - 47.5).abs() < 0.5);
+//! assert!(p.atten_db_per_m() > 0.0);
+//! # Ok::<(), echoline::Error>(())
+//! ```
 
 use crate::error::{self, Error, Result};
 use crate::line::conductor::{Conductor, Metal};

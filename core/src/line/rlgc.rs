@@ -23,7 +23,7 @@
 //! `from_zy` itself is used.
 //!
 //! At DC: Z = R_dc total, Y = G_dc; with G_dc = 0 the characteristic impedance
-//! is [`Impedance::Open`](crate::value::Impedance::Open) and γ = 0; with R = G = 0
+//! is [`Impedance::Open`] and γ = 0; with R = G = 0
 //! it is the limit √(L/C) (C at DC uses the static permittivity).
 //!
 //! Warnings: [`Warnings::HIGH_LOSS`] when R ≥ 0.1·ωL or G ≥ 0.1·ωC (R = Re Z,
