@@ -21,7 +21,11 @@
 //! exact 1/√(LC); for a line with series resistance it is the (small) diffusive
 //! velocity there, which tends to zero as it should.
 
+pub mod coax;
+pub mod conductor;
+pub mod dielectric;
 pub mod lossless;
+pub mod rlgc;
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};
