@@ -92,7 +92,11 @@ impl fmt::Display for Error {
             Error::Unreachable(p) => write!(f, "{p} cannot be reached within the model's range"),
             Error::NoConvergence(p) => write!(f, "{p} did not converge"),
             Error::Parse { pos, expected } => {
-                write!(f, "line {}, column {}: expected {expected}", pos.line, pos.column)
+                write!(
+                    f,
+                    "line {}, column {}: expected {expected}",
+                    pos.line, pos.column
+                )
             }
         }
     }
@@ -125,7 +129,13 @@ impl defmt::Format for Error {
             Error::Unreachable(p) => defmt::write!(f, "{=str} unreachable", p),
             Error::NoConvergence(p) => defmt::write!(f, "{=str} no convergence", p),
             Error::Parse { pos, expected } => {
-                defmt::write!(f, "{=u32}:{=u32} expected {=str}", pos.line, pos.column, expected)
+                defmt::write!(
+                    f,
+                    "{=u32}:{=u32} expected {=str}",
+                    pos.line,
+                    pos.column,
+                    expected
+                )
             }
         }
     }
@@ -180,10 +190,22 @@ mod tests {
 
     #[test]
     fn validators_name_the_parameter() {
-        assert_eq!(finite(f64::NAN, "length_m"), Err(Error::NonFinite("length_m")));
-        assert_eq!(positive(0.0f32, "freq_hz"), Err(Error::NotPositive("freq_hz")));
-        assert_eq!(non_negative(-1.0f64, "r_ohm"), Err(Error::Negative("r_ohm")));
-        assert_eq!(in_range(0.5f64, 1.0, 2.0, "eps_r"), Err(Error::OutOfRange("eps_r")));
+        assert_eq!(
+            finite(f64::NAN, "length_m"),
+            Err(Error::NonFinite("length_m"))
+        );
+        assert_eq!(
+            positive(0.0f32, "freq_hz"),
+            Err(Error::NotPositive("freq_hz"))
+        );
+        assert_eq!(
+            non_negative(-1.0f64, "r_ohm"),
+            Err(Error::Negative("r_ohm"))
+        );
+        assert_eq!(
+            in_range(0.5f64, 1.0, 2.0, "eps_r"),
+            Err(Error::OutOfRange("eps_r"))
+        );
         assert_eq!(positive(f32::INFINITY, "x"), Err(Error::NonFinite("x")));
         assert_eq!(in_range(1.5f64, 1.0, 2.0, "eps_r"), Ok(1.5));
     }

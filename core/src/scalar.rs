@@ -32,7 +32,16 @@ pub const DB_PER_NEPER: f64 = 8.685_889_638_065_037;
 pub const SIGMA_COPPER_S_PER_M: f64 = 5.8e7;
 
 /// The scalar of every computation: `f32` or `f64`.
-pub trait Real: Float + FloatConst + Copy + Debug + Default + PartialOrd + 'static {
+pub trait Real:
+    Float
+    + FloatConst
+    + Copy
+    + Debug
+    + Default
+    + PartialOrd
+    + 'static
+    + crate::math::special::LibmSpecial
+{
     /// Machine epsilon of the type.
     const EPS: Self;
     /// Converts a literal. Inlined so that constant arguments fold at compile time

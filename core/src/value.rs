@@ -139,6 +139,9 @@ mod tests {
         let back = z.admittance().impedance().finite().unwrap();
         assert!((back.re - 50.0).abs() < 1e-12 && (back.im - 50.0).abs() < 1e-12);
         assert_eq!(Extended::<f64>::Infinite.to_float(), f64::INFINITY);
-        assert_eq!(Impedance::from_complex(Cx::new(f64::INFINITY, 0.0)), Impedance::Open);
+        assert_eq!(
+            Impedance::from_complex(Cx::new(f64::INFINITY, 0.0)),
+            Impedance::Open
+        );
     }
 }

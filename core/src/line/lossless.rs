@@ -29,7 +29,10 @@ impl<T: Real> Lossless<T> {
         if vf > T::one() {
             return Err(Error::OutOfRange("velocity_factor"));
         }
-        Ok(Lossless { z0_ohm, velocity_factor: vf })
+        Ok(Lossless {
+            z0_ohm,
+            velocity_factor: vf,
+        })
     }
 
     /// From a characteristic impedance and a relative permittivity εr ≥ 1.
@@ -89,21 +92,41 @@ mod tests {
         for &f in &[0.0, 1e3, 1e9] {
             let p = properties(&l, f).unwrap();
             assert_relative_eq!(p.velocity_factor, 0.8, max_relative = 1e-12);
-            assert_relative_eq!(p.group_velocity_m_per_s, 0.8 * 299_792_458.0, max_relative = 1e-6);
+            assert_relative_eq!(
+                p.group_velocity_m_per_s,
+                0.8 * 299_792_458.0,
+                max_relative = 1e-6
+            );
             assert_relative_eq!(p.eps_eff, 1.5625, max_relative = 1e-12);
             assert_eq!(p.atten_db_per_m, 0.0);
             assert_eq!(p.point.zc_ohm, Impedance::ohms(50.0));
         }
         let p32 = properties(&Lossless::<f32>::new(50.0, 0.8).unwrap(), 1e9).unwrap();
-        assert_relative_eq!(p32.group_velocity_m_per_s, 0.8 * 299_792_458.0, max_relative = 1e-3);
+        assert_relative_eq!(
+            p32.group_velocity_m_per_s,
+            0.8 * 299_792_458.0,
+            max_relative = 1e-3
+        );
     }
 
     #[test]
     fn bad_inputs_are_named() {
-        assert_eq!(Lossless::<f64>::new(f64::NAN, 0.5), Err(Error::NonFinite("z0_ohm")));
-        assert_eq!(Lossless::<f64>::new(50.0, 1.5), Err(Error::OutOfRange("velocity_factor")));
-        assert_eq!(Lossless::<f32>::new(-50.0, 0.5), Err(Error::NotPositive("z0_ohm")));
-        assert_eq!(Lossless::<f64>::from_eps_r(50.0, 0.5), Err(Error::OutOfRange("eps_r")));
+        assert_eq!(
+            Lossless::<f64>::new(f64::NAN, 0.5),
+            Err(Error::NonFinite("z0_ohm"))
+        );
+        assert_eq!(
+            Lossless::<f64>::new(50.0, 1.5),
+            Err(Error::OutOfRange("velocity_factor"))
+        );
+        assert_eq!(
+            Lossless::<f32>::new(-50.0, 0.5),
+            Err(Error::NotPositive("z0_ohm"))
+        );
+        assert_eq!(
+            Lossless::<f64>::from_eps_r(50.0, 0.5),
+            Err(Error::OutOfRange("eps_r"))
+        );
         let l = Lossless::<f64>::new(50.0, 0.66).unwrap();
         assert_eq!(l.at(-1.0), Err(Error::Negative("freq_hz")));
         assert_eq!(l.at(f64::INFINITY), Err(Error::NonFinite("freq_hz")));

@@ -60,14 +60,38 @@ impl Warnings {
     pub const EXTRAPOLATED: Warnings = Warnings(1 << 7);
 
     const ALL: [(Warnings, &'static str); 8] = [
-        (Warnings::ABOVE_HIGHER_MODE, "above the first higher-order-mode cutoff: the line is no longer single-mode"),
-        (Warnings::EVANESCENT, "below the waveguide cutoff: the wave is evanescent and does not propagate"),
-        (Warnings::OUTSIDE_FIT_RANGE, "geometry or material outside the published range of the formula"),
-        (Warnings::HIGH_LOSS, "loss too high for small-loss formulas (R/ωL or G/ωC not small)"),
-        (Warnings::DIFFUSIVE, "diffusive regime (R/ωL ≥ 1): a velocity factor does not describe this line"),
-        (Warnings::THIN_CONDUCTOR, "conductor thinner than three skin depths"),
-        (Warnings::NON_CAUSAL_DIELECTRIC, "constant permittivity and loss tangent are not causal over a wide band"),
-        (Warnings::EXTRAPOLATED, "frequency outside the range of the data the model was built from"),
+        (
+            Warnings::ABOVE_HIGHER_MODE,
+            "above the first higher-order-mode cutoff: the line is no longer single-mode",
+        ),
+        (
+            Warnings::EVANESCENT,
+            "below the waveguide cutoff: the wave is evanescent and does not propagate",
+        ),
+        (
+            Warnings::OUTSIDE_FIT_RANGE,
+            "geometry or material outside the published range of the formula",
+        ),
+        (
+            Warnings::HIGH_LOSS,
+            "loss too high for small-loss formulas (R/ωL or G/ωC not small)",
+        ),
+        (
+            Warnings::DIFFUSIVE,
+            "diffusive regime (R/ωL ≥ 1): a velocity factor does not describe this line",
+        ),
+        (
+            Warnings::THIN_CONDUCTOR,
+            "conductor thinner than three skin depths",
+        ),
+        (
+            Warnings::NON_CAUSAL_DIELECTRIC,
+            "constant permittivity and loss tangent are not causal over a wide band",
+        ),
+        (
+            Warnings::EXTRAPOLATED,
+            "frequency outside the range of the data the model was built from",
+        ),
     ];
 
     /// The raw bits.
@@ -277,7 +301,11 @@ pub fn group_delay_s_per_m<T: Real, M: LineModel<T> + ?Sized>(model: &M, freq_hz
     let rel = T::EPS.cbrt();
     let f_floor = T::lit(DC_LIMIT_HZ);
     let h = (f * rel).max(f_floor * rel);
-    let (f_lo, f_hi) = if f > h { (f - h, f + h) } else { (f.max(f_floor), f.max(f_floor) + h) };
+    let (f_lo, f_hi) = if f > h {
+        (f - h, f + h)
+    } else {
+        (f.max(f_floor), f.max(f_floor) + h)
+    };
     let b_lo = model.at(f_lo)?.beta_rad_per_m();
     let b_hi = model.at(f_hi)?.beta_rad_per_m();
     let d = (b_hi - b_lo) / (T::two_pi() * (f_hi - f_lo));
@@ -285,7 +313,10 @@ pub fn group_delay_s_per_m<T: Real, M: LineModel<T> + ?Sized>(model: &M, freq_hz
 }
 
 /// All derived properties at `freq_hz ≥ 0` (see the module docs for DC).
-pub fn properties<T: Real, M: LineModel<T> + ?Sized>(model: &M, freq_hz: T) -> Result<LineProperties<T>> {
+pub fn properties<T: Real, M: LineModel<T> + ?Sized>(
+    model: &M,
+    freq_hz: T,
+) -> Result<LineProperties<T>> {
     let f = check_freq(freq_hz)?;
     let point = model.at(f)?;
     let f_v = f.max(T::lit(DC_LIMIT_HZ));
@@ -298,13 +329,25 @@ pub fn properties<T: Real, M: LineModel<T> + ?Sized>(model: &M, freq_hz: T) -> R
         (T::zero(), T::infinity())
     };
     let gd = group_delay_s_per_m(model, f)?;
-    let vg = if gd > T::zero() { T::one() / gd } else { T::zero() };
+    let vg = if gd > T::zero() {
+        T::one() / gd
+    } else {
+        T::zero()
+    };
     let c0 = T::c0();
-    let eps_eff = if vp > T::zero() { (c0 / vp) * (c0 / vp) } else { T::infinity() };
+    let eps_eff = if vp > T::zero() {
+        (c0 / vp) * (c0 / vp)
+    } else {
+        T::infinity()
+    };
     let (ac, ad) = point.loss_split_np_per_m();
     let db = T::lit(DB_PER_NEPER);
     let b0 = point.beta_rad_per_m();
-    let wavelength = if b0 > T::zero() { T::two_pi() / b0 } else { T::infinity() };
+    let wavelength = if b0 > T::zero() {
+        T::two_pi() / b0
+    } else {
+        T::infinity()
+    };
     Ok(LineProperties {
         point,
         eps_eff,

@@ -92,9 +92,17 @@ pub fn distance_from_round_trip<T: Real>(
 ///
 /// Common practice, no single source; the interval is a worst-case band, not a
 /// standard deviation. Valid: `sample_interval_s > 0`, `rise_time_s ≥ 0`.
-pub fn timing_half_width_s<T: Real>(sample_interval_s: T, interpolated: bool, rise_time_s: T) -> Result<T> {
+pub fn timing_half_width_s<T: Real>(
+    sample_interval_s: T,
+    interpolated: bool,
+    rise_time_s: T,
+) -> Result<T> {
     let dt = error::positive(sample_interval_s, "sample_interval_s")?;
     let tr = error::non_negative(rise_time_s, "rise_time_s")?;
-    let q = if interpolated { dt * T::lit(0.125) } else { dt * T::half() };
+    let q = if interpolated {
+        dt * T::lit(0.125)
+    } else {
+        dt * T::half()
+    };
     Ok(q + tr * T::lit(0.1))
 }
