@@ -23,7 +23,10 @@ impl Table {
 
     /// Iterates rows as a closure-friendly accessor: `row.get("name")`.
     pub fn iter(&self) -> impl Iterator<Item = Row<'_>> {
-        self.rows.iter().map(move |r| Row { table: self, values: r })
+        self.rows.iter().map(move |r| Row {
+            table: self,
+            values: r,
+        })
     }
 }
 
@@ -49,14 +52,19 @@ pub fn vectors_dir() -> PathBuf {
 pub fn load(name: &str) -> Table {
     let path = vectors_dir().join(format!("{name}.txt"));
     let text = std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
-    let mut lines = text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty());
+    let mut lines = text
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.trim().is_empty());
     let header = lines.next().expect("header line");
     let columns: Vec<String> = header.split_whitespace().map(str::to_owned).collect();
     let rows: Vec<Vec<f64>> = lines
         .map(|l| {
             let r: Vec<f64> = l
                 .split_whitespace()
-                .map(|v| v.parse::<f64>().unwrap_or_else(|e| panic!("{name}: {v}: {e}")))
+                .map(|v| {
+                    v.parse::<f64>()
+                        .unwrap_or_else(|e| panic!("{name}: {v}: {e}"))
+                })
                 .collect();
             assert_eq!(r.len(), columns.len(), "{name}: row length");
             r

@@ -100,10 +100,41 @@ fn stages_table<T: Real, const INV: bool>(data: &mut [Cx<T>], table: &[Cx<T>]) {
             *a = *a + t;
         }
     }
-    let mut size = 4;
+    // Second stage: twiddles 1 and ∓j.
+    if n >= 4 {
+        for quad in data.chunks_exact_mut(4) {
+            if let [a0, a1, b0, b1] = quad {
+                let t0 = *b0;
+                // b1·(−j) forward, b1·(+j) inverse.
+                let t1 = if INV {
+                    Cx::new(-b1.im, b1.re)
+                } else {
+                    Cx::new(b1.im, -b1.re)
+                };
+                *b0 = *a0 - t0;
+                *a0 = *a0 + t0;
+                *b1 = *a1 - t1;
+                *a1 = *a1 + t1;
+            }
+        }
+    }
+    let mut size = 8;
     while size <= n {
         let half = size / 2;
         let stride = table_n / size;
+        if stride == 1 {
+            // Last stage of a full-size table: contiguous twiddles.
+            for chunk in data.chunks_exact_mut(size) {
+                let (lo, hi) = chunk.split_at_mut(half);
+                for ((a, b), w) in lo.iter_mut().zip(hi.iter_mut()).zip(table.iter()) {
+                    let t = *b * conj_if::<T, INV>(*w);
+                    *b = *a - t;
+                    *a = *a + t;
+                }
+            }
+            size *= 2;
+            continue;
+        }
         for chunk in data.chunks_exact_mut(size) {
             let (lo, hi) = chunk.split_at_mut(half);
             for ((a, b), w) in lo

@@ -214,7 +214,8 @@ fn erfc_inv_upper<T: Real>(y: T) -> Result<T> {
 
 /// Inverse complementary error function: the x with erfc(x) = y, for 0 < y < 2.
 ///
-/// For y > 1 it uses erfc⁻¹(y) = −erfc⁻¹(2 − y) (2 − y is exact there).
+/// For ½ ≤ y ≤ 3/2 it solves erf(x) = 1 − y; for y > 3/2 it uses
+/// erfc⁻¹(y) = −erfc⁻¹(2 − y) (2 − y is exact there).
 /// Accurate to a few ulp for y down to the smallest normal number of the type;
 /// in the subnormal range the accuracy of libm's erfc limits it.
 ///
@@ -224,10 +225,36 @@ pub fn erfc_inv<T: Real>(y: T) -> Result<T> {
     if !(y > T::zero() && y < T::two()) {
         return Err(Error::OutOfRange("y"));
     }
-    if y <= T::one() {
+    if y >= T::half() && y <= T::lit(1.5) {
+        // Near y = 1 erfc(x) ≈ 1 hides x in its last bits: solve erf(x) = 1 − y
+        // instead (1 − y is exact here by Sterbenz's lemma).
+        return erf_inv_central(T::one() - y);
+    }
+    if y < T::one() {
         erfc_inv_upper(y)
     } else {
         Ok(-erfc_inv_upper(T::two() - y)?)
+    }
+}
+
+/// erf⁻¹(z) for |z| ≤ ½ by Newton's method from the tangent at 0.
+fn erf_inv_central<T: Real>(z: T) -> Result<T> {
+    if z == T::zero() {
+        return Ok(T::zero());
+    }
+    let two_over_sqrt_pi = T::lit(core::f64::consts::FRAC_2_SQRT_PI);
+    let mut x = z / two_over_sqrt_pi;
+    for _ in 0..50 {
+        let step = (x.lib_erf() - z) / (two_over_sqrt_pi * (-x * x).exp());
+        x = x - step;
+        if step.abs() <= T::two() * T::EPS * x.abs() {
+            return Ok(x);
+        }
+    }
+    if x.is_finite() {
+        Ok(x)
+    } else {
+        Err(Error::NoConvergence("erfc_inv"))
     }
 }
 

@@ -30,7 +30,7 @@
 //! [`coherent_gain`] = Σw/N and [`enbw_bins`] = N·Σw²/(Σw)² of any buffer.
 
 use crate::error::{finite, Error, Result};
-use crate::math::special::bessel_i0e;
+use crate::math::special::{bessel_i0, bessel_i0e};
 use crate::scalar::Real;
 
 /// Which window, with its parameter.
@@ -129,9 +129,17 @@ impl<T: Real> Window<T> {
                 let mt = T::from_usize(m);
                 let q = T::lit(4.0) * mt * (span_t - mt) / (span_t * span_t);
                 let x = beta * q.max(T::zero()).sqrt();
-                // x is finite (β is), so the scaled I0 cannot fail.
-                let num = bessel_i0e(x).unwrap_or(T::zero());
-                num / den * (x - beta).exp()
+                if beta <= T::lit(25.0) {
+                    // Plain ratio of two all-positive series: fewest roundings.
+                    // x ≤ β ≤ 25 is finite and I0 cannot overflow there.
+                    let num = bessel_i0(x).unwrap_or(T::zero());
+                    let d = bessel_i0(beta).unwrap_or(T::one());
+                    num / d
+                } else {
+                    // x is finite (β is), so the scaled I0 cannot fail.
+                    let num = bessel_i0e(x).unwrap_or(T::zero());
+                    num / den * (x - beta).exp()
+                }
             }
         }
     }
