@@ -21,7 +21,7 @@
 //! * [`fft`] / [`ifft`]: no table; computes the N − 1 distinct twiddles on the
 //!   fly (one `sin_cos` per twiddle per stage), about 2–4× slower.
 //!
-//! **Memory.** The data are transformed in place: 2·size_of::<T>() bytes per
+//! **Memory.** The data are transformed in place: `2·size_of::<T>()` bytes per
 //! point (8 B in `f32`, 16 B in `f64`), plus the table of N/2 complex values
 //! (4 B or 8 B per point) for the plan. The real-signal helpers need a complex
 //! work buffer of N points as well.
@@ -361,7 +361,7 @@ fn real_fill<'w, T: Real>(
 ///
 /// `half` holds bins 0 ..= N/2 (N/2 + 1 values; the imaginary parts of bin 0 and
 /// bin N/2 are ignored, as they must be zero for a real result); the missing
-/// bins are X[N−k] = conj X[k]. `out.len()` = N (power of two); `work` needs ≥ N
+/// bins are `X[N−k] = conj X[k]`. `out.len()` = N (power of two); `work` needs ≥ N
 /// complex points. Scaled by 1/N like [`ifft`].
 ///
 /// Errors: [`Error::OutOfRange`]`("len")` for a bad N, [`Error::LengthMismatch`]`("half")`,

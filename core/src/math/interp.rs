@@ -1,9 +1,9 @@
 //! Interpolation on uniformly sampled data.
 //!
-//! * [`lerp_uniform`]: y(x) = (1 − u)·y[i] + u·y[i+1] with i + u = (x − x0)/dx.
-//! * [`first_crossing`]: the first i with y[i] on one side of a level and y[i+1]
-//!   on the other (or on it), and the fractional position
-//!   i + (level − y[i])/(y[i+1] − y[i]).
+//! * [`lerp_uniform`]: `y(x) = (1 − u)·y[i] + u·y[i+1]` with `i + u = (x − x0)/dx`.
+//! * [`first_crossing`]: the first i with `y[i]` on one side of a level and
+//!   `y[i+1]` on the other (or on it), and the fractional position
+//!   `i + (level − y[i])/(y[i+1] − y[i])`.
 //! * [`parabolic_peak`]: the vertex of the parabola through three neighbouring
 //!   samples, offset δ = ½·(y₋ − y₊)/(y₋ − 2y₀ + y₊) and value
 //!   y₀ − ¼·(y₋ − y₊)·δ (common practice, no single source; see e.g. Smith,
@@ -52,9 +52,9 @@ pub fn lerp_uniform<T: Real>(y: &[T], x0: T, dx: T, x: T) -> Result<T> {
 /// Which way a crossing must go.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Direction {
-    /// y[i] < level ≤ y[i+1].
+    /// `y[i] < level ≤ y[i+1]`.
     Rising,
-    /// y[i] > level ≥ y[i+1].
+    /// `y[i] > level ≥ y[i+1]`.
     Falling,
     /// Either of the above.
     Either,
@@ -114,9 +114,9 @@ pub struct Peak<T> {
     pub value: T,
 }
 
-/// Vertex of the parabola through y[i−1], y[i], y[i+1] (a peak or a trough).
+/// Vertex of the parabola through `y[i−1]`, `y[i]`, `y[i+1]` (a peak or a trough).
 ///
-/// Three equal samples give offset 0 and value y[i].
+/// Three equal samples give offset 0 and value `y[i]`.
 ///
 /// Errors: [`Error::TooShort`] (`"y"`, 3); [`Error::OutOfRange`]`("i")` unless
 /// 1 ≤ i ≤ N − 2; [`Error::NonFinite`]`("y")`; [`Error::Undefined`]`("peak")`

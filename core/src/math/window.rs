@@ -1,4 +1,4 @@
-//! Symmetric data windows (w[0] = w[N−1]) for gating and spectral analysis, and
+//! Symmetric data windows (`w[0] = w[N−1]`) for gating and spectral analysis, and
 //! the figures of merit of a window buffer.
 //!
 //! With m = min(n, N−1−n) (so the symmetry is exact) and s = sin(π·m/(N−1)):
