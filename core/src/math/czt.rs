@@ -188,7 +188,9 @@ fn turns_times<T: Real>(t: T, m: u64) -> T {
 ///
 /// Errors: [`Error::TooShort`] naming `"x"` or `"out"` when empty;
 /// [`Error::OutOfRange`]`("len")` for L > 2²⁰; [`Error::Capacity`] (`"scratch"`);
-/// [`Error::NonFinite`]`("x")`; contour fields by name (`"a_radius"`, …).
+/// [`Error::NonFinite`]`("x")`; contour fields by name (`"a_radius"`, …);
+/// [`Error::OutOfRange`]`("contour")` when a spiral contour (radius ≠ 1) makes the
+/// chirp overflow and the result would not be finite (then `out` holds garbage).
 pub fn czt<T: Real>(
     x: &[Cx<T>],
     contour: &Contour<T>,
@@ -283,6 +285,10 @@ pub fn czt<T: Real>(
         let mg = modulus(k, T::one(), T::zero());
         *o = *g * Cx::new(p.re * mg, p.im * mg);
     }
+    // A spiral contour can overflow |W|^(n²/2); report it rather than return ∞/NaN.
+    if out.iter().any(|v| !(v.re.is_finite() && v.im.is_finite())) {
+        return Err(Error::OutOfRange("contour"));
+    }
     Ok(())
 }
 
@@ -339,5 +345,19 @@ mod tests {
             })
         );
         assert_eq!(fft_len(MAX_LEN, 2), Err(Error::OutOfRange("len")));
+        let spiral = Contour {
+            a_radius: 1.0,
+            a_turns: 0.0,
+            w_radius: 0.01,
+            w_turns: 0.1,
+        };
+        let x = [Cx::new(1.0f64, 0.0); 40];
+        let mut out = [Cx::new(0.0, 0.0); 40];
+        let mut scratch = [Cx::new(0.0, 0.0); 320];
+        assert_eq!(scratch_len(40, 40), Ok(320));
+        assert_eq!(
+            czt(&x, &spiral, &mut out, &mut scratch),
+            Err(Error::OutOfRange("contour"))
+        );
     }
 }
