@@ -25,8 +25,9 @@
 //! 40·L bytes in `f64`. N, M ≥ 1 and L ≤ 2²⁰.
 
 use crate::error::{finite, positive, Error, Result};
-use crate::math::complex::{phasor_turns, reduce_turns, Cx};
+use crate::math::complex::{reduce_turns, Cx};
 use crate::math::fft::{fill_twiddles, Fft, MAX_LEN};
+use crate::math::special::cis_turns;
 use crate::scalar::Real;
 
 /// The contour z_k = A·W⁻ᵏ, with A = a_radius·e^(j2π·a_turns) and
@@ -247,7 +248,7 @@ pub fn czt<T: Real>(
         *yv = match x.get(i) {
             Some(xv) => {
                 let turns = -(turns_times(half_w, sq(i)) + turns_times(contour.a_turns, i as u64));
-                let p = phasor_turns(turns);
+                let p = cis_turns(turns);
                 let g = modulus(i, T::one(), T::one());
                 *xv * Cx::new(p.re * g, p.im * g)
             }
@@ -256,7 +257,7 @@ pub fn czt<T: Real>(
     }
     // v_r = W^(−r²/2) for r = 0 .. M−1 and at L − r for r = 1 .. N−1.
     let chirp_inv = |r: usize| {
-        let p = phasor_turns(turns_times(half_w, sq(r)));
+        let p = cis_turns(turns_times(half_w, sq(r)));
         let g = modulus(r, -T::one(), T::zero());
         Cx::new(p.re * g, p.im * g)
     };
@@ -281,7 +282,7 @@ pub fn czt<T: Real>(
     plan.inverse(y)?;
     // X_k = W^(k²/2) · g_k.
     for (k, (o, g)) in out.iter_mut().zip(y.iter()).enumerate() {
-        let p = phasor_turns(-turns_times(half_w, sq(k)));
+        let p = cis_turns(-turns_times(half_w, sq(k)));
         let mg = modulus(k, T::one(), T::zero());
         *o = *g * Cx::new(p.re * mg, p.im * mg);
     }
@@ -295,6 +296,7 @@ pub fn czt<T: Real>(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::math::complex::phasor_turns;
 
     #[test]
     fn exact_phase_reduction() {

@@ -11,8 +11,8 @@
 //! bit-reversal permutation, then log₂N stages of butterflies.
 //!
 //! **Twiddles.** Every twiddle factor is computed directly as
-//! e^(−j2πk/N) = [`phasor_turns`]`(−k/N)` (phase reduced in turns, one `sin_cos`
-//! each); there is no recurrence, so `f32` keeps a relative error of order
+//! e^(−j2πk/N) = [`cis_turns`]`(−k/N)` (phase reduced exactly in turns, sine
+//! and cosine by a series in `T`, no double precision on the `f32` path); there is no recurrence, so `f32` keeps a relative error of order
 //! ε·log₂N. Two ways to get them:
 //!
 //! * [`Fft`]: a plan borrowing a table of N/2 twiddles filled once by
@@ -30,7 +30,8 @@
 //! work buffer of N points as well.
 
 use crate::error::{Error, Result};
-use crate::math::complex::{phasor_turns, Cx};
+use crate::math::complex::Cx;
+use crate::math::special::cis_turns;
 use crate::scalar::Real;
 
 /// Largest supported transform length, 2²⁰.
@@ -60,7 +61,7 @@ pub fn fill_twiddles<T: Real>(table: &mut [Cx<T>]) -> Result<()> {
     }
     let n = T::from_usize(table.len() * 2);
     for (k, w) in table.iter_mut().enumerate() {
-        *w = phasor_turns(-(T::from_usize(k) / n));
+        *w = cis_turns(-(T::from_usize(k) / n));
     }
     Ok(())
 }
@@ -162,7 +163,7 @@ fn stages_computed<T: Real, const INV: bool>(data: &mut [Cx<T>]) {
         let half = size / 2;
         let size_t = T::from_usize(size);
         for j in 0..half {
-            let w = conj_if::<T, INV>(phasor_turns(-(T::from_usize(j) / size_t)));
+            let w = conj_if::<T, INV>(cis_turns(-(T::from_usize(j) / size_t)));
             for chunk in data.chunks_exact_mut(size) {
                 let (lo, hi) = chunk.split_at_mut(half);
                 if let (Some(a), Some(b)) = (lo.get_mut(j), hi.get_mut(j)) {
@@ -397,6 +398,7 @@ pub fn fft_real<T: Real>(x: &[T], work: &mut [Cx<T>], half: &mut [Cx<T>]) -> Res
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::math::complex::phasor_turns;
 
     fn naive(x: &[Cx<f64>]) -> [Cx<f64>; 16] {
         let n = x.len();

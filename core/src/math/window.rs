@@ -30,7 +30,7 @@
 //! [`coherent_gain`] = Σw/N and [`enbw_bins`] = N·Σw²/(Σw)² of any buffer.
 
 use crate::error::{finite, Error, Result};
-use crate::math::special::{bessel_i0, bessel_i0e};
+use crate::math::special::{bessel_i0, bessel_i0e, sin_cos_turns};
 use crate::scalar::Real;
 
 /// Which window, with its parameter.
@@ -117,11 +117,11 @@ impl<T: Real> Window<T> {
         match *self {
             Window::Rectangular => T::one(),
             Window::Hann => {
-                let s = (T::PI() * T::from_usize(m) / span_t).sin();
+                let s = sin_cos_turns(T::from_usize(m) / (span_t + span_t)).0;
                 s * s
             }
             Window::Hamming => {
-                let s = (T::PI() * T::from_usize(m) / span_t).sin();
+                let s = sin_cos_turns(T::from_usize(m) / (span_t + span_t)).0;
                 T::lit(0.08) + T::lit(0.92) * s * s
             }
             Window::Kaiser { beta } => {
