@@ -9,7 +9,11 @@
 //!   e^(−|x|)·I0(x), which never overflows (the Kaiser window uses it).
 //! * erfc, J0, J1, Y0, Y1 come from `libm` (`erfc`/`erfcf`, `j1`/`j1f`, …) through
 //!   the [`LibmSpecial`] trait, so the `f32` path calls the single-precision
-//!   routines and never touches `f64`.
+//!   routines; our code adds no `f64`. (Checked on `thumbv7em-none-eabihf`:
+//!   `erfcf`, `expf`, `logf` are pure single precision, but `libm`'s `j0f`/`j1f`/
+//!   `y0f`/`y1f`, like its `sinf`/`cosf`, evaluate parts in double precision, so
+//!   the `f32` Bessel J/Y are soft-float on a single-precision FPU: fine for
+//!   set-up work such as a cutoff, not for per-sample loops.)
 //! * erfc⁻¹(y) solves ln erfc(x) = ln y by Newton's method. ln erfc is concave,
 //!   and the start x₀ = √(−ln y) lies right of the root (erfc x ≤ e^(−x²) for
 //!   x ≥ 0), so the iterates decrease monotonically onto the root.
@@ -108,41 +112,45 @@ pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
     let f = u - k; // [−½, ½], exact
     let th = f * T::FRAC_PI_2();
     let z = th * th;
-    // sin θ = θ·Σ (−z)ⁱ/(2i+1)!, cos θ = Σ (−z)ⁱ/(2i)!
-    let sin_c = [
-        -1.0 / 355_687_428_096_000.0,
-        1.0 / 1_307_674_368_000.0,
-        -1.0 / 6_227_020_800.0,
-        1.0 / 39_916_800.0,
-        -1.0 / 362_880.0,
-        1.0 / 5_040.0,
-        -1.0 / 120.0,
-        1.0 / 6.0,
-    ];
-    let cos_c = [
-        1.0 / 6_402_373_705_728_000.0,
-        -1.0 / 20_922_789_888_000.0,
-        1.0 / 87_178_291_200.0,
-        -1.0 / 479_001_600.0,
-        1.0 / 3_628_800.0,
-        -1.0 / 40_320.0,
-        1.0 / 720.0,
-        -1.0 / 24.0,
-        1.0 / 2.0,
-    ];
-    // sin θ = θ − θ·z·P(z), P = 1/3! − z/5! + … − z⁷/17! (Horner, highest first).
-    // Single precision needs only the terms to θ⁹ and θ¹⁰ (truncation < 2·10⁻⁹).
-    let skip = if T::EPS > T::lit(1e-10) { 4 } else { 0 };
-    let mut p = T::zero();
-    for &c in sin_c.iter().skip(skip) {
-        p = p * z + T::lit(c);
-    }
+    // sin θ = θ − θ·z·P(z), P = 1/3! − z/5! + … − z⁷/17!;
+    // cos θ = 1 − z·Q(z),   Q = 1/2! − z/4! + … + z⁸/18!  (Horner, highest first).
+    // Each coefficient is written as `T::lit(literal)` so it folds at compile time.
+    let h = |acc: T, c: f64| acc * z + T::lit(c);
+    let (p, q) = if T::EPS > T::lit(1e-10) {
+        // Single precision: terms to θ⁹ and θ¹⁰ (truncation < 2·10⁻⁹).
+        let p = h(
+            h(h(T::lit(-1.0 / 362_880.0), 1.0 / 5_040.0), -1.0 / 120.0),
+            1.0 / 6.0,
+        );
+        let q = h(
+            h(
+                h(h(T::lit(1.0 / 3_628_800.0), -1.0 / 40_320.0), 1.0 / 720.0),
+                -1.0 / 24.0,
+            ),
+            0.5,
+        );
+        (p, q)
+    } else {
+        let mut p = T::lit(-1.0 / 355_687_428_096_000.0);
+        p = h(p, 1.0 / 1_307_674_368_000.0);
+        p = h(p, -1.0 / 6_227_020_800.0);
+        p = h(p, 1.0 / 39_916_800.0);
+        p = h(p, -1.0 / 362_880.0);
+        p = h(p, 1.0 / 5_040.0);
+        p = h(p, -1.0 / 120.0);
+        p = h(p, 1.0 / 6.0);
+        let mut q = T::lit(1.0 / 6_402_373_705_728_000.0);
+        q = h(q, -1.0 / 20_922_789_888_000.0);
+        q = h(q, 1.0 / 87_178_291_200.0);
+        q = h(q, -1.0 / 479_001_600.0);
+        q = h(q, 1.0 / 3_628_800.0);
+        q = h(q, -1.0 / 40_320.0);
+        q = h(q, 1.0 / 720.0);
+        q = h(q, -1.0 / 24.0);
+        q = h(q, 0.5);
+        (p, q)
+    };
     let s = th - th * z * p;
-    // cos θ = 1 − z·Q(z), Q = 1/2! − z/4! + … + z⁸/18!.
-    let mut q = T::zero();
-    for &c in cos_c.iter().skip(skip) {
-        q = q * z + T::lit(c);
-    }
     let c = T::one() - z * q;
     match (k.to_i64_sat()).rem_euclid(4) {
         0 => (s, c),
