@@ -759,3 +759,82 @@ fn bessel_order_one_and_derivatives_match_scipy() {
         );
     }
 }
+
+// ---------------------------------------------------------------- no panics
+
+/// Hostile inputs (empty, NaN, ±∞, huge, tiny) return a value or a typed error,
+/// never a panic. Common practice, no single source.
+#[test]
+fn hostile_inputs_do_not_panic() {
+    let specials = [
+        0.0f64,
+        -0.0,
+        1.0,
+        -1.0,
+        0.5,
+        2.0,
+        1e-310,
+        1e308,
+        -1e308,
+        f64::NAN,
+        f64::INFINITY,
+        f64::NEG_INFINITY,
+    ];
+    for &v in &specials {
+        let _ = bessel_i0(v);
+        let _ = bessel_i0e(v);
+        let _ = erfc(v);
+        let _ = erfc_inv(v);
+        let _ = bessel_j1_prime(v);
+        let _ = bessel_y1_prime(v);
+        let _ = ellip_k(v);
+        let _ = ellip_k_ratio(v);
+        let _ = ellip_k_from_complement(v);
+        for &u in &specials {
+            let _ = ellip_k_ratio_pair(v, u);
+            let _ = find_root(|x: f64| Ok(x - u), v, u, 0.0, 50);
+            let _ = find_root(|x: f64| Ok(x - 0.3), v, u, v.abs(), 50);
+            let _ = echoline::math::interp::lerp_uniform(&[1.0, v, u], 0.0, v, u);
+            let _ = first_crossing(&[v, u, 1.0, v], u, Direction::Either, 0);
+            let _ = parabolic_peak(&[v, u, 1.0], 1);
+            let _ = Contour::zoom(v, u, v);
+            let c = Contour {
+                a_radius: v,
+                a_turns: u,
+                w_radius: 1.0,
+                w_turns: v,
+            };
+            let x = [Cx::new(v, u); 3];
+            let mut out = [Cx::new(0.0, 0.0); 2];
+            let mut scratch = [Cx::new(0.0, 0.0); 10];
+            let _ = czt(&x, &c, &mut out, &mut scratch);
+        }
+        let mut w = [0.0f64; 5];
+        let _ = Window::Kaiser { beta: v }.fill(&mut w);
+        let _ = Window::Kaiser { beta: v as f32 }.value(2, 5);
+        let _ = enbw_bins(&[v, 1.0]);
+        let _ = coherent_gain(&[v]);
+        let mut d = [Cx::new(v, v); 8];
+        let _ = fft(&mut d);
+        let _ = ifft(&mut d);
+    }
+    // Degenerate sizes.
+    let mut empty: [Cx<f32>; 0] = [];
+    assert!(fft(&mut empty).is_err());
+    assert!(Window::<f32>::Hann.fill(&mut []).is_err());
+    assert!(first_crossing::<f32>(&[], 0.0, Direction::Rising, 0).is_err());
+    assert!(parabolic_peak::<f32>(&[1.0], 0).is_err());
+    assert!(parabolic_peak(&[1.0f32, 2.0, 1.0], usize::MAX).is_err());
+    assert!(first_crossing(&[1.0f32, 2.0], 1.5, Direction::Rising, usize::MAX).is_err());
+    assert!(Window::<f64>::Hann.value(usize::MAX, 3).is_err());
+    assert!(scratch_len(usize::MAX, usize::MAX).is_err());
+    let mut out = [Cx::new(0.0f32, 0.0); 1];
+    assert!(czt(&[], &Contour::dft(1).unwrap(), &mut out, &mut []).is_err());
+    assert!(czt(
+        &[Cx::new(1.0f32, 0.0)],
+        &Contour::dft(1).unwrap(),
+        &mut [],
+        &mut []
+    )
+    .is_err());
+}

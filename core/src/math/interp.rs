@@ -129,7 +129,8 @@ pub fn parabolic_peak<T: Real>(y: &[T], i: usize) -> Result<Peak<T>> {
         });
     }
     let lo = i.checked_sub(1).ok_or(Error::OutOfRange("i"))?;
-    let three = y.get(lo..lo + 3).ok_or(Error::OutOfRange("i"))?;
+    let hi = lo.checked_add(3).ok_or(Error::OutOfRange("i"))?;
+    let three = y.get(lo..hi).ok_or(Error::OutOfRange("i"))?;
     let (ym, y0, yp) = match *three {
         [a, b, c] => (finite(a, "y")?, finite(b, "y")?, finite(c, "y")?),
         _ => return Err(Error::OutOfRange("i")),
