@@ -8,7 +8,8 @@
 //! * [`elliptic`]: complete elliptic integral K(k) and K(k)/K(k′) by the AGM;
 //! * [`roots`]: bracketing root finder (Brent's method);
 //! * [`interp`]: uniform-grid linear interpolation, threshold crossings, parabolic peaks;
-//! * [`special`]: Bessel I0 (and scaled), erfc and its inverse, J1/Y1 and derivatives.
+//! * [`special`]: Bessel I0 (and scaled), erfc and its inverse, J1/Y1 and derivatives,
+//!   sine/cosine of a phase in turns computed in the scalar's own precision.
 
 pub mod complex;
 pub mod czt;
