@@ -116,8 +116,8 @@ pub fn reduce_turns<T: Real>(turns: T) -> T {
 /// e^(j·2π·turns): a unit phasor from a phase in turns, reduced before the trig call.
 #[inline]
 pub fn phasor_turns<T: Real>(turns: T) -> Cx<T> {
-    let r = reduce_turns(turns);
-    let (s, c) = (T::two_pi() * r).sin_cos();
+    // In the scalar's own precision (libm's sinf/cosf use double kernels).
+    let (s, c) = crate::math::special::sin_cos_turns(turns);
     Complex::new(c, s)
 }
 
