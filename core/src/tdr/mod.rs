@@ -1,1 +1,2 @@
 //! Reflection traces: simulation and analysis (in progress).
+pub mod sim;

@@ -243,15 +243,14 @@ pub fn simulate<T: Real, P: OnePort<T> + ?Sized>(
     if let Some(nyq) = work.get_mut(half) {
         nyq.im = T::zero();
     }
-    crate::math::fft::inverse_unplanned(work)?;
+    crate::math::fft::ifft(work)?;
     let vs = source.open_circuit_v;
     let mut rng = noise.map(|nz| Gauss::new(nz.seed));
     let rms = noise.map(|nz| nz.rms_v).unwrap_or_else(T::zero);
     error::non_negative(rms, "rms_v")?;
     for (i, (o, w)) in out.iter_mut().zip(work.iter()).enumerate() {
         let t = T::from_usize(i) * dt;
-        // inverse_unplanned scales by 1/M; the sum Σ R_k e^{…}·df·M·(1/M)… :
-        // x(t_n) = Σ_k X_k e^{j2πkn/M} df, and X_k/dt·(1/M) = X_k·df.
+        // ifft scales by 1/M and the bins hold R_k/dt, so this is Σ_k R_k e^{j2πkn/M}·df.
         let settled = h0.re * source.waveform(t);
         let mut v = vs * (settled + w.re);
         if let Some(g) = rng.as_mut() {
@@ -292,7 +291,7 @@ impl Gauss {
         let u1 = self.uniform();
         let u2 = self.uniform();
         let r = libm::sqrtf(-2.0 * libm::logf(u1));
-        let (s, c) = libm::sincosf(core::f32::consts::TAU * u2);
+        let (s, c) = crate::math::special::sin_cos_turns(u2);
         self.spare = Some(r * s);
         T::from(r * c).unwrap_or_else(T::zero)
     }
