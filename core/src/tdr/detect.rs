@@ -39,11 +39,13 @@
 //!    **open end**; Γ ≤ −end_gamma a **short**. Detection stops there: later
 //!    lobes are echoes and only counted.
 //! 3. Otherwise a step is **impedance up** (ρ > 0) or **impedance down**.
-//! 4. If no open or short was found, the last event, when it is a step with
-//!    |ρ| ≥ [`DetectSettings::resistive_min_rho`] (default 0.1), is reported
-//!    as **resistive**: the line ends in (or is lost in) a resistance
+//! 4. If no open or short was found, the last large event
+//!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`], default 0.1; smaller later
+//!    ones are taken as multiple reflections), when it is a step that leaves
+//!    the level at |Γ| ≥ the same bound (not back near the source impedance), is reported as
+//!    **resistive**: the line ends in (or is lost in) a resistance
 //!    R = Z_after — a series fault if ρ > 0, a shunt fault if ρ < 0. A step
-//!    trace cannot tell this from a long section of another impedance.
+//!    trace cannot tell this from a long matched section of another impedance.
 //! 5. If no open or short was found, an **end of trace** event marks the last
 //!    analysed sample (ρ = 0, Γ and Z there): nothing beyond it was seen.
 //!
@@ -76,7 +78,8 @@ pub struct DetectSettings<T> {
     pub min_rho: T,
     /// |Γ| after a step at or above which it is an open end / short (default 0.8).
     pub end_gamma: T,
-    /// Smallest |ρ| of a last step reported as resistive (default 0.1).
+    /// Smallest |ρ| and |Γ after| of the last large step for it to be
+    /// reported as resistive (default 0.1).
     pub resistive_min_rho: T,
     /// Largest net level change of a lobe pair, as a fraction of its peak
     /// excursion, for it to be one lumped C/L event (default 0.5).
@@ -633,9 +636,10 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
         }
     }
     if !run.ended {
-        if let Some(last) = run.out.last_mut() {
+        let big = set.resistive_min_rho;
+        if let Some(last) = run.out.iter_mut().rev().find(|e| e.rho.abs() >= big) {
             if matches!(last.kind, EventKind::ImpedanceUp | EventKind::ImpedanceDown)
-                && last.rho.abs() >= set.resistive_min_rho
+                && last.gamma_after.abs() >= big
             {
                 last.kind = EventKind::Resistive;
             }

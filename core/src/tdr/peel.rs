@@ -110,7 +110,7 @@ pub fn peel_impulse<T: Real>(
                 end: ProfileEnd::Samples,
             });
         };
-        if !(d0.abs() > T::zero()) || !d0.is_finite() {
+        if d0 == T::zero() || !d0.is_finite() {
             return Err(Error::Undefined("u"));
         }
         let r = u0 / d0;

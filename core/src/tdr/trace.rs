@@ -16,11 +16,11 @@
 //!   plateau (after the edge has settled) minus the pre-launch level;
 //! * **rise time** — 10–90 % of the launch edge, interpolated.
 //!
-//! The launch is found as the first sample whose excursion from the
-//! pre-launch level exceeds a quarter of the largest excursion in the trace
-//! (an open end at most doubles the incident level, so the quarter point always
-//! lies on the launch edge). The 10–90 % rise time and the 50 % time reference
-//! are common practice, no single source.
+//! The launch is found as the first sample where the two-sample change
+//! |v[i+2] − v[i]| reaches half of the steepest one in the trace (nothing can
+//! precede the launch; a loss creep or an open end does not move this point),
+//! and must exceed 10 σ of the noise floor. The 10–90 % rise time and the 50 %
+//! time reference are common practice, no single source.
 
 use crate::error::{self, Error, Result};
 use crate::scalar::Real;
@@ -378,33 +378,38 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
                 .ok_or(Error::Undefined("pre_launch_v"))?
         }
     };
-    // Largest excursion from the pre-launch level, and the first sample past a
-    // quarter of it: that sample is on the launch edge.
-    let mut max_dev = T::zero();
-    let mut max_sign = T::one();
-    for i in 0..len {
-        let d = s.volts(i).ok_or(Error::Undefined("samples"))? - pre_v;
-        if d.abs() > max_dev {
-            max_dev = d.abs();
-            max_sign = d.signum();
-        }
-    }
-    let tiny = (pre_v.abs() + T::one()) * T::EPS * T::lit(64.0);
-    if max_dev <= tiny {
-        return Err(Error::Undefined("time_zero"));
-    }
-    let sign = match setup.incident_v {
-        Some(v) if v != T::zero() => v.signum(),
-        _ => max_sign,
-    };
-    let quarter = pre_v + sign * max_dev * T::lit(0.25);
+    // The steepest two-sample change d2 = v[i+2] − v[i] (in the incident's
+    // direction when it is given); the launch edge is the first sample where
+    // |d2| reaches half of it (no reflection can precede the launch).
     let search_from = match given_t0 {
         Some(t0) => (t0.floor().to_i64_sat().max(0) as usize).saturating_sub(PRE_LAUNCH_SAMPLES),
         None => 0,
     };
-    let i_q = crossing_forward(s, search_from, len, quarter, sign)
-        .ok_or(Error::Undefined("time_zero"))?;
-    let i_q = i_q.ceil().to_i64_sat().max(0) as usize;
+    let want = match setup.incident_v {
+        Some(v) if v != T::zero() => v.signum(),
+        _ => T::zero(),
+    };
+    let v_at = |i: usize| s.volts(i).ok_or(Error::Undefined("samples"));
+    let mut max_d2 = T::zero();
+    for i in search_from..len.saturating_sub(2) {
+        let d2 = v_at(i + 2)? - v_at(i)?;
+        if want == T::zero() || d2.signum() == want {
+            max_d2 = max_d2.max(d2.abs());
+        }
+    }
+    let tiny = (pre_v.abs() + T::one()) * T::EPS * T::lit(64.0);
+    if max_d2 <= tiny {
+        return Err(Error::Undefined("time_zero"));
+    }
+    let mut found = None;
+    for i in search_from..len.saturating_sub(2) {
+        let d2 = v_at(i + 2)? - v_at(i)?;
+        if d2.abs() >= max_d2 * T::half() && (want == T::zero() || d2.signum() == want) {
+            found = Some((i + 1, d2.signum()));
+            break;
+        }
+    }
+    let (i_q, sign) = found.ok_or(Error::Undefined("time_zero"))?;
     if given_t0.is_none() && i_q < PRE_LAUNCH_SAMPLES {
         return Err(Error::TooShort {
             what: "pre_launch samples",
@@ -416,7 +421,7 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
     let incident_v = match setup.incident_v {
         Some(v) => v,
         None => {
-            let step = max_dev * T::lit(0.02);
+            let step = max_d2 * T::lit(0.05);
             let mut top = i_q;
             while top + 2 < len {
                 let a = s.volts(top).ok_or(Error::Undefined("samples"))?;
@@ -437,9 +442,11 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
                 - pre_v
         }
     };
-    if incident_v.abs() <= tiny {
+    let sigma = crate::tdr::noise::noise_floor(s, 0, len)?.sigma_v;
+    if incident_v.abs() <= tiny.max(T::lit(10.0) * sigma) {
         return Err(Error::Undefined("incident_v"));
     }
+    let _ = sign;
     let sign = incident_v.signum();
     let level = |f: f64| pre_v + incident_v * T::lit(f);
     let lo_search = i_q.saturating_sub(len);
