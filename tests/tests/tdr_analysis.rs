@@ -707,3 +707,36 @@ fn difference_trace_reveals_a_small_new_fault() {
     assert!((hits[0].rho + 0.02).abs() < 0.002);
     assert!(Difference::new::<f64>(&today[..], &reference[..10]).is_err());
 }
+
+fn negative_launch<T: Real>() {
+    // A negative-going step from a 0.2 V pre-launch level: ρ and kinds keep
+    // their meaning (ρ relative to the incident level).
+    let mut s = Synth::new(N, DT, T0, Edge::RaisedCosine(RISE));
+    s.v_inc = -1.0;
+    s.pre_v = 0.2;
+    s.steps.extend_from_slice(&[(300e-9, 0.2), (900e-9, 0.8)]);
+    s.noise_v = 0.002;
+    let x = to::<T>(&s.render());
+    let trace = Trace::new(&x[..], setup::<T>(DT)).unwrap();
+    assert!((f(trace.incident_v()) + 1.0).abs() < 0.01);
+    assert!((f(trace.pre_launch_v()) - 0.2).abs() < 0.01);
+    let a = trace.analyse::<16>(&DetectSettings::default()).unwrap();
+    assert_eq!(kinds(&a), vec![EventKind::ImpedanceUp, EventKind::OpenEnd]);
+    assert!((f(a.events[0].rho) - 0.2).abs() < 0.005);
+    assert!((f(a.events[1].gamma_after) - 1.0).abs() < 0.01);
+    // A quiet range for the noise floor, and a bad one.
+    let quiet = DetectSettings { noise_range: Some((100, 500)), ..DetectSettings::default() };
+    let b = trace.analyse::<16>(&quiet).unwrap();
+    assert!((f(b.noise.sigma_v) / 0.002 - 1.0).abs() < 0.3);
+    let bad = DetectSettings { noise_range: Some((500, 100)), ..DetectSettings::default() };
+    assert_eq!(trace.analyse::<16>(&bad).err(), Some(Error::OutOfRange("noise_range")));
+}
+
+#[test]
+fn negative_going_launch_f32() {
+    negative_launch::<f32>();
+}
+#[test]
+fn negative_going_launch_f64() {
+    negative_launch::<f64>();
+}

@@ -86,6 +86,9 @@ pub struct DetectSettings<T> {
     pub lumped_max_net: T,
     /// Matched-filter length per side in samples (≥ 2); `None`: from the rise time.
     pub filter_samples: Option<usize>,
+    /// Sample range `[from, to)` known to be quiet for the noise floor;
+    /// `None`: the whole trace (robust statistics ignore the few edges).
+    pub noise_range: Option<(usize, usize)>,
 }
 
 impl<T: Real> Default for DetectSettings<T> {
@@ -97,6 +100,7 @@ impl<T: Real> Default for DetectSettings<T> {
             resistive_min_rho: T::lit(0.1),
             lumped_max_net: T::lit(0.5),
             filter_samples: None,
+            noise_range: None,
         }
     }
 }
@@ -348,7 +352,7 @@ impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, T, S, N> {
             EventKind::OpenEnd
         } else if gamma_after <= -self.set.end_gamma {
             EventKind::Short
-        } else if dv > T::zero() {
+        } else if dv / vinc > T::zero() {
             EventKind::ImpedanceUp
         } else {
             EventKind::ImpedanceDown
@@ -514,24 +518,28 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     let dt = trace.dt_s;
     let rise_samples = trace.rise_time_s / dt;
     let w = match set.filter_samples {
-        Some(w) if w >= 2 && 8 * w < len => w,
+        Some(w) if w >= 2 && w.saturating_mul(8) < len => w,
         Some(_) => return Err(Error::OutOfRange("filter_samples")),
         None => {
             let w = (T::two() * rise_samples)
                 .ceil()
                 .to_i64_sat()
                 .clamp(4, i64::from(u32::MAX)) as usize;
-            if 8 * w >= len {
+            if w.saturating_mul(8) >= len {
                 return Err(Error::TooShort {
                     what: "samples",
-                    needed: 8 * w + 1,
+                    needed: w.saturating_mul(8).saturating_add(1),
                 });
             }
             w
         }
     };
     let g = (T::lit(0.85) * rise_samples).ceil().to_i64_sat().max(0) as usize + 1;
-    let noise = noise_floor(trace.samples, 0, len)?;
+    let noise = match set.noise_range {
+        Some((from, to)) if from < to && to <= len => noise_floor(trace.samples, from, to)?,
+        Some(_) => return Err(Error::OutOfRange("noise_range")),
+        None => noise_floor(trace.samples, 0, len)?,
+    };
     let sigma = noise.sigma_v;
     let vinc_abs = trace.incident_v.abs();
     let inv_w = T::one() / T::from_usize(w);

@@ -51,9 +51,8 @@ pub fn noise_floor<T: Real, S: Samples<T> + ?Sized>(
     let points = pairs.min(NOISE_POINTS);
     let mut buf = [T::zero(); NOISE_POINTS];
     for (k, slot) in buf.iter_mut().take(points).enumerate() {
-        // Evenly spaced pair starts (integer arithmetic, no overflow for any
-        // realistic trace length: k < 256).
-        let i = from + k * pairs / points;
+        // Evenly spaced pair starts (in u64: no overflow on 32-bit targets).
+        let i = from + (k as u64 * pairs as u64 / points as u64) as usize;
         let a = s.volts(i).ok_or(Error::BadIndex {
             what: "samples",
             index: i,
