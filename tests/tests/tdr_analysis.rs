@@ -191,13 +191,13 @@ fn lumped<T: Real>() {
     let (ec, el) = (a.events[0], a.events[1]);
     match ec.lumped {
         Lumped::Capacitance { farads } => {
-            assert!((f(farads) / c_f - 1.0).abs() < 0.05, "{}", f(farads))
+            assert!((f(farads) / c_f - 1.0).abs() < 0.03, "{}", f(farads))
         }
         other => panic!("{other:?}"),
     }
     match el.lumped {
         Lumped::Inductance { henries } => {
-            assert!((f(henries) / l_h - 1.0).abs() < 0.05, "{}", f(henries))
+            assert!((f(henries) / l_h - 1.0).abs() < 0.03, "{}", f(henries))
         }
         other => panic!("{other:?}"),
     }
@@ -725,11 +725,20 @@ fn negative_launch<T: Real>() {
     assert!((f(a.events[0].rho) - 0.2).abs() < 0.005);
     assert!((f(a.events[1].gamma_after) - 1.0).abs() < 0.01);
     // A quiet range for the noise floor, and a bad one.
-    let quiet = DetectSettings { noise_range: Some((100, 500)), ..DetectSettings::default() };
+    let quiet = DetectSettings {
+        noise_range: Some((100, 500)),
+        ..DetectSettings::default()
+    };
     let b = trace.analyse::<16>(&quiet).unwrap();
     assert!((f(b.noise.sigma_v) / 0.002 - 1.0).abs() < 0.3);
-    let bad = DetectSettings { noise_range: Some((500, 100)), ..DetectSettings::default() };
-    assert_eq!(trace.analyse::<16>(&bad).err(), Some(Error::OutOfRange("noise_range")));
+    let bad = DetectSettings {
+        noise_range: Some((500, 100)),
+        ..DetectSettings::default()
+    };
+    assert_eq!(
+        trace.analyse::<16>(&bad).err(),
+        Some(Error::OutOfRange("noise_range"))
+    );
 }
 
 #[test]
@@ -739,4 +748,55 @@ fn negative_going_launch_f32() {
 #[test]
 fn negative_going_launch_f64() {
     negative_launch::<f64>();
+}
+
+#[test]
+fn lumped_c_between_unequal_lines() {
+    // Shunt 8 pF at a 50 → 60 Ω junction: ρ(t) = ρ∞ − (1+ρ∞)e^(−t/τ),
+    // τ = C·Z1Z2/(Z1+Z2) (Johnson & Graham, 1993, value from memory), then matched.
+    let (dt, rise) = (0.1e-9, 0.5e-9);
+    let (z1, z2, c_f) = (50.0, 60.0, 8e-12);
+    let rho_inf = (z2 - z1) / (z2 + z1);
+    let tau = c_f * z1 * z2 / (z1 + z2);
+    for precision in 0..2 {
+        let mut s = Synth::new(N, dt, 5e-9, Edge::RaisedCosine(rise));
+        s.steps.push((100e-9, rho_inf));
+        s.lumped.push((100e-9, -(1.0 + rho_inf), tau));
+        s.noise_v = 0.001;
+        let x = s.render();
+        let (kind, c, t, z) = if precision == 0 {
+            let a = analyse::<f64>(&x, dt);
+            let e = a.events[0];
+            (
+                e.kind,
+                e.lumped,
+                e.round_trip_s,
+                e.z_after.finite().unwrap().re,
+            )
+        } else {
+            let a = analyse::<f32>(&to::<f32>(&x), dt);
+            let e = a.events[0];
+            let c = match e.lumped {
+                Lumped::Capacitance { farads } => Lumped::Capacitance {
+                    farads: farads as f64,
+                },
+                _ => Lumped::None,
+            };
+            (
+                e.kind,
+                c,
+                e.round_trip_s as f64,
+                e.z_after.finite().unwrap().re as f64,
+            )
+        };
+        assert_eq!(kind, EventKind::Capacitive);
+        match c {
+            Lumped::Capacitance { farads } => {
+                assert!((farads / c_f - 1.0).abs() < 0.03, "{farads}")
+            }
+            other => panic!("{other:?}"),
+        }
+        assert!((t - 100e-9).abs() < 0.05e-9, "{t}");
+        assert!((z - z2).abs() < 0.5, "{z}");
+    }
 }

@@ -28,13 +28,21 @@
 //! 1. Two adjacent lobes of opposite sign (the second starting within g + 1
 //!    samples of the end of the first) whose net level change is at most
 //!    [`DetectSettings::lumped_max_net`] × the peak excursion form one lumped
-//!    event: a dip is **capacitive**, a bump **inductive**. The area A
-//!    (V·s) of the excursion from the straight line joining the levels gives
-//!    C = −2A/(Z·V_inc) or L = 2·Z·A/V_inc with Z the impedance before the
-//!    event (equal lines; Johnson & Graham, *High-Speed Digital Design*,
-//!    1993, value from memory). The time is the excursion's centroid minus
-//!    τ = |A/V_inc| (the centroid of e^(−t/τ) lies τ after its start).
-//!    ρ is the peak excursion over V_inc.
+//!    event: a dip is **capacitive**, a bump **inductive**. A is the area
+//!    (V·s) of the excursion over a step baseline (level before, then level
+//!    after, switching at the discontinuity). Between equal lines Z:
+//!    C = −2A/(Z·V_inc), L = 2·Z·A/V_inc (Johnson & Graham, *High-Speed
+//!    Digital Design*, 1993, value from memory). Between unequal lines Z1 → Z2
+//!    (from the cumulative levels) the excursion is −(1+ρ∞)e^(−t/τ) with
+//!    τ = C·Z1Z2/(Z1+Z2) for a shunt C and (1−ρ∞)e^(−t/τ) with τ = L/(Z1+Z2)
+//!    for a series L, ρ∞ = (Z2−Z1)/(Z2+Z1), so
+//!    C = −(A/V_inc)·(Z1+Z2)²/(2·Z1·Z2²) and L = (A/V_inc)·(Z1+Z2)²/(2·Z1)
+//!    (derived here from the same Laplace-domain model; they reduce to the
+//!    equal-line forms). The time is the excursion's centroid minus τ (the
+//!    centroid of e^(−t/τ) lies τ after its start; a symmetric edge does not
+//!    move it). ρ is the peak excursion over V_inc. The values assume the
+//!    event sees the full incident step: earlier discontinuities scale them
+//!    by their round-trip transmission.
 //! 2. A step after which Γ ≥ [`DetectSettings::end_gamma`] (default 0.8) is an
 //!    **open end**; Γ ≤ −end_gamma a **short**. Detection stops there: later
 //!    lobes are echoes and only counted.
@@ -403,26 +411,57 @@ impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, T, S, N> {
         }
         let dt = self.trace.dt_s;
         let vinc = self.trace.incident_v;
-        let area_norm_s = area * dt / vinc; // ∫ρ dt, s
-        let tau_samples = area_norm_s.abs() / dt;
-        let t_index = moment / area - tau_samples;
-        let gamma_before = self.trace.gamma_at_level(mb);
-        let z_before = impedance_from_gamma(self.trace.source_ohm, gamma_before);
-        let capacitive = area_norm_s < T::zero();
-        let lumped = match z_before.finite() {
-            Some(z) if z.re > T::zero() => {
-                if capacitive {
-                    Lumped::Capacitance {
-                        farads: -T::two() * area_norm_s / z.re,
-                    }
-                } else {
-                    Lumped::Inductance {
-                        henries: T::two() * z.re * area_norm_s,
+        let capacitive = area / vinc < T::zero();
+        let z1 =
+            impedance_from_gamma(self.trace.source_ohm, self.trace.gamma_at_level(mb)).finite();
+        let z2 =
+            impedance_from_gamma(self.trace.source_ohm, self.trace.gamma_at_level(ma)).finite();
+        // τ and the lumped value from the normalised area a_s = ∫(ρ − ρ∞) dt.
+        let value = |a_s: T| -> (Lumped<T>, T) {
+            match (z1, z2) {
+                (Some(z1), Some(z2)) if z1.re > T::zero() && z2.re > T::zero() => {
+                    let (z1, z2) = (z1.re, z2.re);
+                    let sum = z1 + z2;
+                    let rho_inf = (z2 - z1) / sum;
+                    if capacitive {
+                        // Excursion −(1+ρ∞)e^(−t/τ), τ = C·Z1Z2/(Z1+Z2).
+                        let c = -a_s * sum * sum / (T::two() * z1 * z2 * z2);
+                        (
+                            Lumped::Capacitance { farads: c },
+                            -a_s / (T::one() + rho_inf),
+                        )
+                    } else {
+                        // Excursion (1−ρ∞)e^(−t/τ), τ = L/(Z1+Z2).
+                        let l = a_s * sum * sum / (T::two() * z1);
+                        (
+                            Lumped::Inductance { henries: l },
+                            a_s / (T::one() - rho_inf),
+                        )
                     }
                 }
+                _ => (Lumped::None, a_s.abs()),
             }
-            _ => Lumped::None,
         };
+        // Start from the straight-line baseline, then refine a step baseline at
+        // the discontinuity t = centroid − τ (three passes converge well
+        // within a sample).
+        let (mut lumped, mut tau_s) = value(area * dt / vinc);
+        let mut t_index = moment / area - tau_s / dt;
+        for _ in 0..3 {
+            let (mut area2, mut moment2) = (T::zero(), T::zero());
+            for i in s..e {
+                let fi = T::from_usize(i);
+                let frac = (fi - t_index + T::half()).max(T::zero()).min(T::one());
+                let x = self.v(i) - (mb + net * frac);
+                area2 = area2 + x;
+                moment2 = moment2 + x * fi;
+            }
+            if area2 == T::zero() || (area2 / vinc < T::zero()) != capacitive {
+                break;
+            }
+            (lumped, tau_s) = value(area2 * dt / vinc);
+            t_index = moment2 / area2 - tau_s / dt;
+        }
         Some(Some(Found {
             kind: if capacitive {
                 EventKind::Capacitive
