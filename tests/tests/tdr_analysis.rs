@@ -800,3 +800,36 @@ fn lumped_c_between_unequal_lines() {
         assert!((z - z2).abs() < 0.5, "{z}");
     }
 }
+
+fn skin_effect_far_end<T: Real>() {
+    // A far open / short seen through skin-effect loss: the reflected step is
+    // erfc(a/(2√(t − t_rt))) (Wigington & Nahman, Proc. IRE 45(2):166–174,
+    // 1957), 50 % after 1.1·a², with a tail that creeps for tens of times that.
+    // One event, classified by its settled level, and nothing invented in the tail.
+    for (amp, kind) in [(1.0, EventKind::OpenEnd), (-1.0, EventKind::Short)] {
+        for t50 in [2e-9, 10e-9, 20e-9] {
+            // erfc(x) = ½ at x = 0.476936: t50 = a²/(4·0.476936²).
+            let a = (t50 * 4.0 * 0.476_936f64.powi(2)).sqrt();
+            let mut s = Synth::new(N, DT, T0, Edge::RaisedCosine(RISE));
+            s.skin_steps.push((1200e-9, amp, a));
+            s.noise_v = 0.002;
+            let x = to::<T>(&s.render());
+            let an = analyse::<T>(&x, DT);
+            assert_eq!(kinds(&an), vec![kind], "t50 {t50}");
+            let e = an.events[0];
+            assert!(f(e.gamma_settled) * amp > 0.85, "{}", f(e.gamma_settled));
+            assert!(f(e.gamma_after).abs() < f(e.gamma_settled).abs());
+            let t = f(e.round_trip_s);
+            assert!(t > 1200e-9 - DT && t < 1200e-9 + t50, "{t}");
+        }
+    }
+}
+
+#[test]
+fn skin_effect_far_end_f32() {
+    skin_effect_far_end::<f32>();
+}
+#[test]
+fn skin_effect_far_end_f64() {
+    skin_effect_far_end::<f64>();
+}

@@ -47,6 +47,12 @@
 //!    **open end**; Γ ≤ −end_gamma a **short**. Detection stops there: later
 //!    lobes are echoes and only counted.
 //! 3. Otherwise a step is **impedance up** (ρ > 0) or **impedance down**.
+//!    If no open or short was found, the last large step
+//!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`]) is an **open end** or
+//!    **short** when its *settled* level [`Event::gamma_settled`] (just
+//!    before the next event or the end of the trace) passes ±end_gamma: a far
+//!    end on a lossy cable rises slowly (skin effect), so its level right after
+//!    the edge reads low.
 //! 4. If no open or short was found, the last large event
 //!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`], default 0.1; smaller later
 //!    ones are taken as multiple reflections), when it is a step that leaves
@@ -171,6 +177,11 @@ pub struct Event<T> {
     pub gamma_after: T,
     /// Impedance after the event from Γ (an open for Γ ≥ 1, 0 Ω for Γ ≤ −1).
     pub z_after: Impedance<T>,
+    /// Cumulative reflection where the level has settled: the mean over the
+    /// last filter length before the next event (or the end of the analysed
+    /// samples). On a lossy cable a far end rises slowly and this, not
+    /// `gamma_after`, shows where it goes.
+    pub gamma_settled: T,
     /// Lumped C or L for capacitive / inductive events.
     pub lumped: Lumped<T>,
     /// |ρ·V_inc| / σ (infinite on a noiseless trace).
@@ -500,6 +511,7 @@ impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, T, S, N> {
                 rho_sigma: f.rho_sigma,
                 gamma_after: f.gamma_after,
                 z_after: impedance_from_gamma(t.source_ohm, f.gamma_after),
+                gamma_settled: f.gamma_after,
                 lumped: f.lumped,
                 snr,
                 clipped: f.clipped,
@@ -682,15 +694,42 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
             run.push(f)?;
         }
     }
+    // Settled level of each event: the mean over the `w` samples that end
+    // g before the next event (or at the last analysed sample).
+    let to_index = |rt: T| (t0 + rt / dt).floor().to_i64_sat().max(0) as usize;
+    for j in 0..run.out.len() {
+        let Some(e) = run.out.get(j) else { break };
+        let here = to_index(e.round_trip_s) + g;
+        let end = run
+            .out
+            .get(j + 1)
+            .map_or(n_end, |nx| to_index(nx.round_trip_s).saturating_sub(g))
+            .min(n_end);
+        let start = end.saturating_sub(w).max(here);
+        if let Some((m, _)) = run.mean(start, end) {
+            let gs = trace.gamma_at_level(m);
+            if let Some(e) = run.out.get_mut(j) {
+                e.gamma_settled = gs;
+            }
+        }
+    }
     if !run.ended {
         let big = set.resistive_min_rho;
         if let Some(last) = run.out.iter_mut().rev().find(|e| e.rho.abs() >= big) {
-            if matches!(last.kind, EventKind::ImpedanceUp | EventKind::ImpedanceDown)
-                && last.gamma_after.abs() >= big
-            {
-                last.kind = EventKind::Resistive;
+            if matches!(last.kind, EventKind::ImpedanceUp | EventKind::ImpedanceDown) {
+                if last.gamma_settled >= set.end_gamma {
+                    last.kind = EventKind::OpenEnd;
+                    run.ended = true;
+                } else if last.gamma_settled <= -set.end_gamma {
+                    last.kind = EventKind::Short;
+                    run.ended = true;
+                } else if last.gamma_after.abs() >= big {
+                    last.kind = EventKind::Resistive;
+                }
             }
         }
+    }
+    if !run.ended {
         let (m_end, clip) = run
             .mean(n_end.saturating_sub(w), n_end)
             .ok_or(Error::Undefined("samples"))?;

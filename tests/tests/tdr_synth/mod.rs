@@ -172,6 +172,9 @@ pub struct Synth {
     pub steps: Vec<(f64, f64)>,
     /// Lumped reflections: (round trip, s; amplitude ±1 scaled; τ, s): a·e^(−t/τ).
     pub lumped: Vec<(f64, f64, f64)>,
+    /// Skin-effect steps (Wigington & Nahman, Proc. IRE 45(2):166–174, 1957):
+    /// (round trip, s; amplitude; a, s^½) with response a·erfc(a/(2√(t − t_rt))).
+    pub skin_steps: Vec<(f64, f64, f64)>,
     /// Linear creep after the launch, V_inc per s.
     pub creep_per_s: f64,
     pub noise_v: f64,
@@ -189,6 +192,7 @@ impl Synth {
             edge,
             steps: vec![],
             lumped: vec![],
+            skin_steps: vec![],
             creep_per_s: 0.0,
             noise_v: 0.0,
             seed: 1,
@@ -216,6 +220,12 @@ impl Synth {
                 for &(tr, a, tau) in &self.lumped {
                     v += a * self.edge.exp(t - tr, tau, dt);
                 }
+                for &(tr, amp, a) in &self.skin_steps {
+                    let x = t - tr;
+                    if x > 0.0 {
+                        v += amp * erfc(a / (2.0 * x.sqrt()));
+                    }
+                }
                 v += self.creep_per_s * t.max(0.0);
                 self.pre_v + self.v_inc * v + self.noise_v * rng.gauss()
             })
@@ -226,4 +236,15 @@ impl Synth {
 /// Casts a trace to the scalar under test (test data preparation only).
 pub fn to<T: echoline::Real>(x: &[f64]) -> Vec<T> {
     x.iter().map(|&v| T::lit(v)).collect()
+}
+
+/// erfc(x) for x ≥ 0, |error| ≤ 1.5e-7 (Abramowitz & Stegun, *Handbook of
+/// Mathematical Functions*, 1964, eq. 7.1.26).
+pub fn erfc(x: f64) -> f64 {
+    let t = 1.0 / (1.0 + 0.327_591_1 * x);
+    let poly = t
+        * (0.254_829_592
+            + t * (-0.284_496_736
+                + t * (1.421_413_741 + t * (-1.453_152_027 + t * 1.061_405_429))));
+    poly * (-x * x).exp()
 }
