@@ -165,3 +165,56 @@ pub fn compare<T: Real, const N: usize>(
     }
     Ok(out)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::tdr::detect::Lumped;
+    use crate::timing::Distance;
+    use crate::value::{Extended, Impedance};
+
+    fn ev(t: f64, rho: f64) -> Event<f64> {
+        let d = Distance {
+            distance_m: 0.0,
+            lo_m: 0.0,
+            hi_m: 0.0,
+        };
+        Event {
+            kind: if rho > 0.0 {
+                EventKind::ImpedanceUp
+            } else {
+                EventKind::ImpedanceDown
+            },
+            round_trip_s: t,
+            t_half_width_s: 1e-9,
+            distance: d,
+            rho,
+            rho_sigma: 0.001,
+            gamma_after: 0.0,
+            z_after: Impedance::ohms(50.0),
+            gamma_settled: 0.0,
+            lumped: Lumped::None,
+            snr: Extended::Infinite,
+            clipped: false,
+        }
+    }
+
+    #[test]
+    fn matches_by_sign_and_nearest() {
+        let r = [ev(100e-9, 0.1), ev(200e-9, -0.1)];
+        // Same events, tiny shifts: no change.
+        let t = [ev(100.5e-9, 0.1), ev(200.5e-9, -0.1)];
+        let c = compare::<f64, 4>(&t, &r, &CompareSettings::with_window(20e-9)).unwrap();
+        assert!(c.is_empty());
+        // Polarity flipped at 200 ns: one new, one gone.
+        let t = [ev(100e-9, 0.1), ev(200e-9, 0.1)];
+        let c = compare::<f64, 4>(&t, &r, &CompareSettings::with_window(20e-9)).unwrap();
+        assert_eq!(c.len(), 2);
+        assert_eq!((c[0].kind, c[0].today), (ChangeKind::New, Some(1)));
+        assert_eq!((c[1].kind, c[1].reference), (ChangeKind::Gone, Some(1)));
+        assert_eq!(
+            compare::<f64, 4>(&t, &r, &CompareSettings::with_window(0.0)).err(),
+            Some(Error::NotPositive("match_window_s"))
+        );
+    }
+}

@@ -768,3 +768,74 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
         analyse(self, settings)
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::tdr::trace::{TimeZero, TraceSetup};
+    use crate::timing::VelocityRange;
+
+    #[test]
+    fn running_haar_equals_direct_sums() {
+        let mut x = [0.0f32; 1200];
+        for (i, v) in x.iter_mut().enumerate() {
+            *v = ((i * 7919) % 101) as f32 * 0.01 + if i > 600 { 1.0 } else { 0.0 };
+        }
+        let w = 5;
+        let mut h = Haar::new();
+        for n in 0..1200 {
+            h.goto(&x[..], Some(n), w, x.len());
+            let direct = if n >= w && n + w <= x.len() {
+                let l: f32 = x[n - w..n].iter().sum();
+                let r: f32 = x[n..n + w].iter().sum();
+                Some((r - l) / w as f32)
+            } else {
+                None
+            };
+            match (h.value(1.0 / w as f32), direct) {
+                (Some(a), Some(b)) => assert!((a - b).abs() < 1e-4, "{n}: {a} {b}"),
+                (None, None) => {}
+                other => panic!("{n}: {other:?}"),
+            }
+        }
+    }
+
+    #[test]
+    fn impedance_from_gamma_is_explicit_at_the_ends() {
+        assert_eq!(impedance_from_gamma(50.0f64, 1.0), Impedance::Open);
+        assert_eq!(impedance_from_gamma(50.0f64, 1.5), Impedance::Open);
+        assert_eq!(impedance_from_gamma(50.0f64, -1.0), Impedance::ohms(0.0));
+        // Γ = 0.2 → 75 Ω; Γ = −1/3 → 25 Ω.
+        let z = impedance_from_gamma(50.0f64, 0.2).finite().unwrap().re;
+        assert!((z - 75.0).abs() < 1e-12);
+        let z = impedance_from_gamma(50.0f32, -1.0 / 3.0)
+            .finite()
+            .unwrap()
+            .re;
+        assert!((z - 25.0).abs() < 1e-4);
+    }
+
+    #[test]
+    fn ideal_open_in_a_fixed_array() {
+        // 50 Ω line, launch at sample 20, open at round trip 100 samples.
+        let mut x = [0.0f64; 400];
+        for (i, v) in x.iter_mut().enumerate() {
+            *v = if i >= 20 { 1.0 } else { 0.0 } + if i >= 120 { 1.0 } else { 0.0 };
+        }
+        let v = VelocityRange::from_factor(0.5, 0.0).unwrap();
+        let su = TraceSetup {
+            time_zero: TimeZero::FromLaunch,
+            ..TraceSetup::measured(1e-9, 50.0, v)
+        };
+        let t = Trace::new(&x, su).unwrap();
+        let a = t.analyse::<4>(&DetectSettings::default()).unwrap();
+        assert_eq!(a.events.len(), 1);
+        let e = a.events[0];
+        assert_eq!(e.kind, EventKind::OpenEnd);
+        // 50 % points at 19.5 and 119.5: 100 ns; d = 0.5·c0·100 ns/2.
+        assert!((e.round_trip_s - 100e-9).abs() < 1e-15);
+        assert!((e.distance.distance_m - 0.5 * 299_792_458.0 * 50e-9).abs() < 1e-9);
+        assert_eq!(e.snr, Extended::Infinite);
+        assert_eq!(e.z_after, Impedance::Open);
+    }
+}

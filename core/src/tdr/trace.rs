@@ -62,6 +62,17 @@ impl<T: Real> Samples<T> for [T] {
     }
 }
 
+impl<T: Real, const M: usize> Samples<T> for [T; M] {
+    #[inline]
+    fn sample_count(&self) -> usize {
+        M
+    }
+    #[inline]
+    fn volts(&self, index: usize) -> Option<T> {
+        self.get(index).copied()
+    }
+}
+
 /// An integer converter code (`i16` or `i32`).
 pub trait AdcCode: Copy {
     /// Lowest representable code.
