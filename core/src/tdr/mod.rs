@@ -19,12 +19,13 @@
 //!   [`crate::timing::distance_from_round_trip`] and
 //!   [`crate::timing::timing_half_width_s`].
 //! * [`peel`] — layer peeling (Bruckstein & Kailath, SIAM Review 29(3), 1987).
-//! * [`compare`] — new / gone / moved / ρ-changed events against a baseline.
+//! * [`mod@compare`] — new / gone / moved / ρ-changed events against a baseline.
 //!
 //! **Memory per sample:** detection needs nothing per sample beyond the
 //! borrowed trace (O(1): three running filters, two lobes, a 256-point noise
 //! array of 1 KiB in f32 / 2 KiB in f64 on the stack) plus
-//! `N · size_of::<Event<T>>()` for the result. Layer peeling needs two caller
+//! `N · size_of::<Event<T>>()` for the result (68 bytes per event in f32,
+//! 136 in f64 on a 64-bit host). Layer peeling needs two caller
 //! buffers of n values (D, U) and the n-value output: 12 bytes per sample in
 //! f32, 24 in f64.
 //!

@@ -1,6 +1,6 @@
 //! Noise floor by robust statistics, in fixed memory.
 //!
-//! σ = 1.4826 · MAD(Δv) / √2, where Δv are first differences v[i+1] − v[i]
+//! σ = 1.4826 · MAD(Δv) / √2, where Δv are first differences v\[i+1\] − v\[i\]
 //! and MAD is the median absolute deviation from their median. The factor
 //! 1.4826 = 1/Φ⁻¹(3/4) makes the MAD a consistent estimate of a Gaussian σ
 //! (Rousseeuw & Croux, "Alternatives to the median absolute deviation",

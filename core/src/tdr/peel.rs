@@ -8,13 +8,13 @@
 //! transmission-line models", SIAM Review 29(3):359–389, 1987).
 //!
 //! Discrete model: cells of equal delay, one sample per round trip. Start with
-//! the down-going wave D₀ = δ[n] and the up-going wave U₀ = r[n], the impulse
+//! the down-going wave D₀ = δ\[n\] and the up-going wave U₀ = r\[n\], the impulse
 //! reflection (the first difference of the normalised step response
-//! s[n] = (v[n] − v_pre)/V_inc − 1, with r[0] = s[0] at time zero). For each
+//! s\[n\] = (v\[n\] − v_pre)/V_inc − 1, with r\[0\] = s\[0\] at time zero). For each
 //! layer k:
 //!
-//! r_k = U_k[0]/D_k[0]; D′ = (D − r_k·U)/(1 − r_k); U′ = (U − r_k·D)/(1 − r_k);
-//! D_{k+1}[n] = a·D′[n], U_{k+1}[n] = U′[n+1]/a; Z_{k+1} = Z_k·(1+r_k)/(1−r_k),
+//! r_k = U_k\[0\]/D_k\[0\]; D′ = (D − r_k·U)/(1 − r_k); U′ = (U − r_k·D)/(1 − r_k);
+//! D_{k+1}\[n\] = a·D′\[n\], U_{k+1}\[n\] = U′\[n+1\]/a; Z_{k+1} = Z_k·(1+r_k)/(1−r_k),
 //!
 //! with Z_0 the source impedance and `a` ∈ (0, 1] an optional one-way
 //! amplitude factor per cell (loss compensation; `a = 1` lossless). The
@@ -154,7 +154,10 @@ pub fn peel_impulse<T: Real>(
 
 impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
     /// Layer-peels this step trace from time zero: the first sample at or after
-    /// time zero is cell 0, one sample per cell round trip. Uses
+    /// time zero is cell 0, one sample per cell round trip (each cell is
+    /// v·Δt/2 long). The model is exact for discontinuities on the sample
+    /// grid; a finite rise time smears each step over a few cells (the
+    /// plateaus between them still read their impedance). Uses
     /// `n = min(u.len(), samples after time zero)` samples; `d` and `z_ohm`
     /// must hold at least `n`. `z_ohm[k]` is then the impedance of cell k
     /// (cell k spans round trips k..k+1 samples after time zero).

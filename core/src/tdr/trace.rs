@@ -13,11 +13,13 @@
 //!   interpolated between samples (the same 50 % rule is used for every
 //!   reflected step, so round-trip times compare like with like);
 //! * **incident level** — median of [`PLATEAU_SAMPLES`] samples on the launch
-//!   plateau (after the edge has settled) minus the pre-launch level;
+//!   plateau (after the edge has settled) minus the pre-launch level; a
+//!   reflection inside those samples (a discontinuity at the port) biases it,
+//!   so give `incident_v` when the cable starts with a mismatch;
 //! * **rise time** — 10–90 % of the launch edge, interpolated.
 //!
 //! The launch is found as the first sample where the two-sample change
-//! |v[i+2] − v[i]| reaches half of the steepest one in the trace (nothing can
+//! |v\[i+2\] − v\[i\]| reaches half of the steepest one in the trace (nothing can
 //! precede the launch; a loss creep or an open end does not move this point),
 //! and must exceed 10 σ of the noise floor. The 10–90 % rise time and the 50 %
 //! time reference are common practice, no single source.
