@@ -47,6 +47,9 @@ pub struct Profile {
     pub layers: usize,
     /// Why it stopped.
     pub end: ProfileEnd,
+    /// Trace sample of cell 0 ([`Trace::peel`]; 0 for [`peel_impulse`]): cell k
+    /// starts at round trip (first_sample + k − t0)·Δt.
+    pub first_sample: usize,
 }
 
 /// Peels an impulse reflection `u` (overwritten; `r[n]` on entry, one sample
@@ -108,6 +111,7 @@ pub fn peel_impulse<T: Real>(
             return Ok(Profile {
                 layers: k,
                 end: ProfileEnd::Samples,
+                first_sample: 0,
             });
         };
         if d0 == T::zero() || !d0.is_finite() {
@@ -118,12 +122,14 @@ pub fn peel_impulse<T: Real>(
             return Ok(Profile {
                 layers: k,
                 end: ProfileEnd::Open,
+                first_sample: 0,
             });
         }
         if r <= -r_max {
             return Ok(Profile {
                 layers: k,
                 end: ProfileEnd::Short,
+                first_sample: 0,
             });
         }
         z = z * (T::one() + r) / (T::one() - r);
@@ -149,18 +155,19 @@ pub fn peel_impulse<T: Real>(
     Ok(Profile {
         layers: n,
         end: ProfileEnd::Samples,
+        first_sample: 0,
     })
 }
 
 impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
-    /// Layer-peels this step trace from time zero: the first sample at or after
-    /// time zero is cell 0, one sample per cell round trip (each cell is
+    /// Layer-peels this step trace: cell 0 is the first sample past the launch
+    /// edge ([`Profile::first_sample`]), one sample per cell round trip (each cell is
     /// v·Δt/2 long). The model is exact for discontinuities on the sample
     /// grid; a finite rise time smears each step over a few cells (the
     /// plateaus between them still read their impedance). Uses
-    /// `n = min(u.len(), samples after time zero)` samples; `d` and `z_ohm`
-    /// must hold at least `n`. `z_ohm[k]` is then the impedance of cell k
-    /// (cell k spans round trips k..k+1 samples after time zero).
+    /// `n = min(u.len(), samples from cell 0 on)` samples; `d` and `z_ohm`
+    /// must hold at least `n`. `z_ohm[k]` is then the impedance of cell k,
+    /// which spans round trips from (first_sample + k − t0)·Δt on.
     pub fn peel(
         &self,
         cell_attenuation: T,
@@ -168,7 +175,16 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
         u: &mut [T],
         z_ohm: &mut [T],
     ) -> Result<Profile> {
-        let i0 = (self.t0_index - T::lit(1e-3)).ceil().to_i64_sat().max(0) as usize;
+        // Cell 0 starts where the launch edge has ended: at t0 + 0.85·t_r (the
+        // half-width of a raised-cosine edge of 10–90 % rise t_r; an ideal
+        // step reads t_r = 0.8 sample) less a quarter sample, so the launch is
+        // removed exactly by subtracting the incident level. Reflections that
+        // arrive during the edge are lumped into cell 0.
+        let rise = self.rise_time_s / self.dt_s;
+        let i0 = (self.t0_index + T::lit(0.85) * rise - T::lit(0.25))
+            .ceil()
+            .to_i64_sat()
+            .max(0) as usize;
         let n = u.len().min(self.len.saturating_sub(i0));
         let u = u.get_mut(..n).ok_or(Error::Capacity {
             what: "u",
@@ -191,7 +207,11 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
             *x = s - prev;
             prev = s;
         }
-        peel_impulse(self.source_ohm, cell_attenuation, d, u, z_ohm)
+        let p = peel_impulse(self.source_ohm, cell_attenuation, d, u, z_ohm)?;
+        Ok(Profile {
+            first_sample: i0,
+            ..p
+        })
     }
 }
 
