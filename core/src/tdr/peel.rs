@@ -264,7 +264,8 @@ mod tests {
             p,
             Profile {
                 layers: 0,
-                end: ProfileEnd::Open
+                end: ProfileEnd::Open,
+                first_sample: 0,
             }
         );
     }
