@@ -12,7 +12,8 @@
 //!
 //! * [`trace`] — the sample sources ([`Samples`], [`AdcCodes`], [`Difference`]),
 //!   [`TraceSetup`] and the validated [`Trace`]; 50 % time zero, 10–90 % rise.
-//! * [`noise`] — σ = 1.4826·MAD(first differences)/√2 over ≤ 256 points.
+//! * [`noise`] — σ from first differences over ≤ 256 points: a 1.4826·MAD
+//!   start, then a 4 s clipped RMS (continuous on quantised ADC codes).
 //! * [`detect`] — matched-filter (Haar) detection with creep removal,
 //!   confirmation, classification, lumped C/L (Johnson & Graham, 1993, value
 //!   from memory), distances with intervals via
