@@ -68,9 +68,11 @@
 //! and flagged ([`Analysis::masked_by_dead_zone`]). The last `w` samples
 //! are not analysed either.
 //!
-//! **Memory and time.** O(1) extra memory: three running Haar filters
-//! (re-summed every 256 samples to bound rounding drift), the lobe being
-//! built and one pending lobe; about nine sample reads per sample. The noise
+//! **Memory and time.** O(1) extra memory: one running Haar filter
+//! (re-summed every 256 samples to bound rounding drift) ahead by 2w and a
+//! 512-value ring of its past outputs (2 KiB in f32, on the stack), or three
+//! running filters when 4w ≥ 512; the lobe being built and one pending lobe;
+//! three sample reads per sample. The noise
 //! floor uses a 256-point stack array ([`super::noise`]). Results go into a
 //! `heapless::Vec<Event<T>, N>`; overflow is [`Error::Capacity`].
 
@@ -284,6 +286,83 @@ impl<T: Real> Haar<T> {
             Some((self.sr - self.sl) * inv_w)
         } else {
             None
+        }
+    }
+}
+
+/// Ring length for the filter history (power of two): with 4w + 1 ≤ RING the
+/// neighbours S(n ± 2w) come from one running filter and this ring, else three
+/// running filters are used.
+const RING: usize = 512;
+
+/// The filter output at n and at n ± 2w.
+struct Filters<T> {
+    w: usize,
+    len: usize,
+    inv_w: T,
+    ring: [T; RING],
+    use_ring: bool,
+    lead: Haar<T>,
+    hl: Haar<T>,
+    hc: Haar<T>,
+    hr: Haar<T>,
+}
+
+impl<T: Real> Filters<T> {
+    fn new<S: Samples<T> + ?Sized>(s: &S, w: usize, len: usize, n_start: usize) -> Self {
+        let mut f = Filters {
+            w,
+            len,
+            inv_w: T::one() / T::from_usize(w),
+            ring: [T::nan(); RING],
+            use_ring: 4 * w < RING,
+            lead: Haar::new(),
+            hl: Haar::new(),
+            hc: Haar::new(),
+            hr: Haar::new(),
+        };
+        if f.use_ring {
+            for p in n_start.saturating_sub(2 * w)..n_start + 2 * w {
+                f.push(s, p);
+            }
+        }
+        f
+    }
+
+    #[inline]
+    fn push<S: Samples<T> + ?Sized>(&mut self, s: &S, p: usize) {
+        self.lead.goto(s, Some(p), self.w, self.len);
+        let v = self.lead.value(self.inv_w).unwrap_or(T::nan());
+        if let Some(slot) = self.ring.get_mut(p % RING) {
+            *slot = v;
+        }
+    }
+
+    #[inline]
+    fn read(&self, p: usize) -> Option<T> {
+        self.ring.get(p % RING).copied().filter(|v| !v.is_nan())
+    }
+
+    /// (S(n), S(n − 2w), S(n + 2w)); `n` must advance by one per call.
+    #[inline]
+    fn at<S: Samples<T> + ?Sized>(&mut self, s: &S, n: usize) -> (Option<T>, Option<T>, Option<T>) {
+        let w2 = 2 * self.w;
+        if self.use_ring {
+            self.push(s, n + w2);
+            (
+                self.read(n),
+                n.checked_sub(w2).and_then(|q| self.read(q)),
+                self.read(n + w2),
+            )
+        } else {
+            self.hc.goto(s, Some(n), self.w, self.len);
+            self.hl.goto(s, n.checked_sub(w2), self.w, self.len);
+            self.hr.goto(s, Some(n + w2), self.w, self.len);
+            (
+                self.hc.value(self.inv_w),
+                self.hl.value(self.inv_w),
+                self.hr.value(self.inv_w),
+            )
         }
     }
 }
@@ -625,18 +704,16 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
         rejected: 0,
         t_hw,
     };
-    let (mut hl, mut hc, mut hr) = (Haar::new(), Haar::new(), Haar::new());
+    let mut filters = Filters::new(trace.samples, w, len, n_start);
     let mut lobe: Option<Lobe<T>> = None;
     let mut pending: Option<Lobe<T>> = None;
     let mut masked = false;
     let half_thr = thr * T::half();
     let s = trace.samples;
     for n in n_start..n_end {
-        hc.goto(s, Some(n), w, len);
-        hl.goto(s, n.checked_sub(2 * w), w, len);
-        hr.goto(s, Some(n + 2 * w), w, len);
-        let sc = hc.value(inv_w).unwrap_or(T::zero());
-        let trend = match (hl.value(inv_w), hr.value(inv_w)) {
+        let (sc, left, right) = filters.at(s, n);
+        let sc = sc.unwrap_or(T::zero());
+        let trend = match (left, right) {
             (Some(a), Some(b)) => {
                 if a.abs() <= b.abs() {
                     a
@@ -798,6 +875,34 @@ mod tests {
                 other => panic!("{n}: {other:?}"),
             }
         }
+    }
+
+    #[test]
+    fn ring_and_three_filters_agree() {
+        let mut x = [0.0f64; 3000];
+        for (i, v) in x.iter_mut().enumerate() {
+            *v = ((i * 7919) % 101) as f64 * 0.01 + if i > 1500 { 1.0 } else { 0.0 };
+        }
+        for w in [3usize, 40, 127] {
+            let n_start = 50;
+            let mut a = Filters::new(&x[..], w, x.len(), n_start);
+            let mut b = Filters::new(&x[..], w, x.len(), n_start);
+            assert!(a.use_ring);
+            b.use_ring = false;
+            for n in n_start..x.len() - w {
+                let (p, q) = (a.at(&x[..], n), b.at(&x[..], n));
+                let same = |u: Option<f64>, v: Option<f64>| match (u, v) {
+                    (Some(u), Some(v)) => (u - v).abs() < 1e-9,
+                    (None, None) => true,
+                    _ => false,
+                };
+                assert!(
+                    same(p.0, q.0) && same(p.1, q.1) && same(p.2, q.2),
+                    "w {w} n {n}: {p:?} {q:?}"
+                );
+            }
+        }
+        assert!(!Filters::new(&x[..], 128, x.len(), 0).use_ring);
     }
 
     #[test]
