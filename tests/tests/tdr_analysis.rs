@@ -919,3 +919,44 @@ fn quantised_noise_gives_a_continuous_floor_and_no_false_events() {
     let want = (0.5e-3f64.powi(2) + 1e-6 / 12.0).sqrt();
     assert!((sum / 200.0 / want - 1.0).abs() < 0.05, "{}", sum / 200.0);
 }
+
+#[test]
+fn given_time_zero_with_measured_levels_and_an_unchanged_difference() {
+    let mut s = Synth::new(2048, DT, T0, Edge::RaisedCosine(RISE));
+    s.steps.push((400e-9, -0.25));
+    s.noise_v = 0.001;
+    let x = s.render();
+    // Time zero given (exact), incident, pre-launch level and rise measured.
+    let su = TraceSetup {
+        time_zero: TimeZero::AtIndex(T0 / DT),
+        ..setup::<f64>(DT)
+    };
+    let t = Trace::new(&x[..], su).unwrap();
+    assert_eq!(t.time_zero_index(), T0 / DT);
+    assert!((t.incident_v() - 1.0).abs() < 0.01 && t.pre_launch_v().abs() < 0.01);
+    assert!((t.rise_time_s() - RISE).abs() < 0.1e-9);
+    let a = t.analyse::<8>(&DetectSettings::default()).unwrap();
+    assert_eq!(kinds(&a), vec![EventKind::Resistive, EventKind::EndOfTrace]);
+    assert!((a.events[0].round_trip_s - 400e-9).abs() < 0.3e-9);
+    // today − reference of the same trace: nothing to measure a rise on.
+    let diff = Difference::new::<f64>(&x[..], &x[..]).unwrap();
+    let su = TraceSetup {
+        incident_v: Some(1.0),
+        pre_launch_v: Some(0.0),
+        ..su
+    };
+    assert_eq!(
+        Trace::new(&diff, su).err(),
+        Some(Error::Undefined("rise_time_s"))
+    );
+    let t = Trace::new(
+        &diff,
+        TraceSetup {
+            rise_time_s: Some(RISE),
+            ..su
+        },
+    )
+    .unwrap();
+    let a = t.analyse::<8>(&DetectSettings::default()).unwrap();
+    assert_eq!(kinds(&a), vec![EventKind::EndOfTrace]);
+}

@@ -169,6 +169,10 @@ impl<C: AdcCode, T: Real> Samples<T> for AdcCodes<'_, C, T> {
 
 /// The sample-by-sample difference `today − reference` of two sources of the
 /// same length (a baseline-subtracted trace, without copying either).
+///
+/// It has no launch: give time zero, the incident level (of the original
+/// traces), `pre_launch_v = Some(0)` and the rise time. Event times and ρ
+/// keep their meaning; cumulative levels (`gamma_after`, `z_after`) do not.
 #[derive(Clone, Copy, Debug)]
 pub struct Difference<'a, A: ?Sized, B: ?Sized> {
     today: &'a A,
@@ -354,12 +358,33 @@ fn crossing_backward<T: Real, S: Samples<T> + ?Sized>(
     None
 }
 
+/// 10–90 % rise of the edge around a 50 % point `t50`, samples.
+fn rise_around<T: Real, S: Samples<T> + ?Sized>(
+    s: &S,
+    len: usize,
+    pre_v: T,
+    incident_v: T,
+    t50: T,
+) -> Option<T> {
+    let sign = incident_v.signum();
+    let level = |f: f64| pre_v + incident_v * T::lit(f);
+    let i50 = t50.floor().to_i64_sat().max(0) as usize;
+    let i50c = (t50.ceil().to_i64_sat().max(0) as usize).min(len.saturating_sub(1));
+    let t10 = crossing_backward(s, 0, i50c, level(0.1), sign)?;
+    let t90 = crossing_forward(s, i50, len, level(0.9), sign)?;
+    if t90 > t10 {
+        Some(t90 - t10)
+    } else {
+        None
+    }
+}
+
 /// What was measured on the launch edge.
 struct Launch<T> {
     pre_v: T,
     incident_v: T,
     t0_index: T,
-    rise_samples: T,
+    rise_samples: Option<T>,
 }
 
 fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
@@ -391,6 +416,15 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
                 .ok_or(Error::Undefined("pre_launch_v"))?
         }
     };
+    if let (Some(t0), Some(incident_v)) = (given_t0, setup.incident_v) {
+        // Nothing to find: only the rise time is read around the given time zero.
+        return Ok(Launch {
+            pre_v,
+            incident_v,
+            t0_index: t0,
+            rise_samples: rise_around(s, len, pre_v, incident_v, t0),
+        });
+    }
     // The steepest two-sample change d2 = v[i+2] − v[i] (in the incident's
     // direction when it is given); the launch edge is the first sample where
     // |d2| reaches half of it (no reflection can precede the launch).
@@ -473,14 +507,7 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
                 .ok_or(Error::Undefined("time_zero"))?
         }
     };
-    let i50 = t50.floor().to_i64_sat().max(0) as usize;
-    let i50c = (t50.ceil().to_i64_sat().max(0) as usize).min(len - 1);
-    let t10 = crossing_backward(s, lo_search, i50c, level(0.1), sign);
-    let t90 = crossing_forward(s, i50, len, level(0.9), sign);
-    let rise_samples = match (t10, t90) {
-        (Some(a), Some(b)) if b > a => b - a,
-        _ => T::zero(),
-    };
+    let rise_samples = rise_around(s, len, pre_v, incident_v, t50);
     Ok(Launch {
         pre_v,
         incident_v,
@@ -568,7 +595,11 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
                 l.pre_v,
                 l.incident_v,
                 l.t0_index,
-                rise_given.unwrap_or(l.rise_samples * dt_s),
+                match (rise_given, l.rise_samples) {
+                    (Some(r), _) => r,
+                    (None, Some(r)) => r * dt_s,
+                    (None, None) => return Err(Error::Undefined("rise_time_s")),
+                },
             )
         };
         if t0_index < T::zero() || t0_index > T::from_usize(len - 1) {
