@@ -960,3 +960,90 @@ fn given_time_zero_with_measured_levels_and_an_unchanged_difference() {
     let a = t.analyse::<8>(&DetectSettings::default()).unwrap();
     assert_eq!(kinds(&a), vec![EventKind::EndOfTrace]);
 }
+
+fn never_panics<T: Real>() {
+    // Random garbage: lengths 0–400, values from tiny to 1e30 (f64) / 1e30
+    // (f32 overflows sums to ∞), spikes, plateaus, random setups. Every call
+    // returns Ok or a typed error; any distance returned is finite.
+    let mut rng = tdr_synth::Rng::new(99);
+    let (mut traces, mut analysed) = (0, 0);
+    for case in 0..1500 {
+        let n = (rng.next_u64() % 400) as usize;
+        let scale = [1e-30, 1e-3, 1.0, 1e6, 1e30][(rng.next_u64() % 5) as usize];
+        let kind = rng.next_u64() % 4;
+        let x: Vec<T> = (0..n)
+            .map(|i| {
+                let u = rng.uniform();
+                let v = match kind {
+                    0 => u,
+                    1 => (if i > n / 3 { 1.0 } else { 0.0 }) + 0.01 * u,
+                    2 => {
+                        if rng.uniform() < 0.05 {
+                            1.0
+                        } else {
+                            0.0
+                        }
+                    }
+                    _ => (i % 7) as f64,
+                };
+                T::lit(v * scale)
+            })
+            .collect();
+        let dt = [1e-9, 1e-12, 1.0, 0.0][(rng.next_u64() % 4) as usize];
+        let tz = match rng.next_u64() % 3 {
+            0 => TimeZero::FromLaunch,
+            1 => TimeZero::AtIndex(T::lit(rng.uniform() * n as f64)),
+            _ => TimeZero::AtIndex(T::lit(-3.0)),
+        };
+        let su = TraceSetup {
+            time_zero: tz,
+            incident_v: if rng.uniform() < 0.3 {
+                Some(T::lit(scale))
+            } else {
+                None
+            },
+            pre_launch_v: if rng.uniform() < 0.3 {
+                Some(T::zero())
+            } else {
+                None
+            },
+            rise_time_s: if rng.uniform() < 0.3 {
+                Some(T::lit(dt * 3.0))
+            } else {
+                None
+            },
+            ..setup::<T>(dt)
+        };
+        let Ok(t) = Trace::new(&x[..], su) else {
+            continue;
+        };
+        traces += 1;
+        let set = DetectSettings {
+            filter_samples: [None, Some(2), Some(7)][case % 3],
+            ..DetectSettings::default()
+        };
+        if let Ok(a) = t.analyse::<8>(&set) {
+            analysed += 1;
+            for e in &a.events {
+                assert!(
+                    f(e.distance.distance_m).is_finite() && f(e.distance.hi_m).is_finite(),
+                    "case {case}"
+                );
+            }
+        }
+        let m = n.min(64);
+        let (mut d, mut u, mut z) = (vec![T::zero(); m], vec![T::zero(); m], vec![T::zero(); m]);
+        let _ = t.peel(T::one(), &mut d, &mut u, &mut z);
+    }
+    // The garbage reaches the analysis often enough to mean something.
+    assert!(traces > 100 && analysed > 50, "{traces} {analysed}");
+}
+
+#[test]
+fn garbage_never_panics_f32() {
+    never_panics::<f32>();
+}
+#[test]
+fn garbage_never_panics_f64() {
+    never_panics::<f64>();
+}
