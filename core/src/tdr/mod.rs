@@ -35,6 +35,27 @@
 //! events than capacity are typed errors; clipped samples are counted
 //! ([`Trace::clipping`]) and flagged on the events they touch.
 
+//!
+//! ```
+//! use echoline::tdr::{DetectSettings, EventKind, Trace, TraceSetup};
+//! use echoline::timing::VelocityRange;
+//!
+//! // An ideal trace: launch at sample 20, an open end 100 samples (100 ns) later.
+//! let mut x = [0.0f32; 400];
+//! for (i, v) in x.iter_mut().enumerate() {
+//!     *v = if i >= 20 { 1.0 } else { 0.0 } + if i >= 120 { 1.0 } else { 0.0 };
+//! }
+//! let velocity = VelocityRange::from_factor(0.66, 0.02)?;
+//! let trace = Trace::new(&x, TraceSetup::measured(1e-9, 50.0, velocity))?;
+//! let found = trace.analyse::<8>(&DetectSettings::default())?;
+//! let end = found.events[0];
+//! assert_eq!(end.kind, EventKind::OpenEnd);
+//! // 0.66·c0·100 ns / 2 ≈ 9.89 m, inside its interval.
+//! assert!((end.distance.distance_m - 9.893).abs() < 0.01);
+//! assert!(end.distance.lo_m < end.distance.distance_m && end.distance.distance_m < end.distance.hi_m);
+//! # Ok::<(), echoline::Error>(())
+//! ```
+
 pub mod compare;
 pub mod detect;
 pub mod noise;
