@@ -1047,3 +1047,22 @@ fn garbage_never_panics_f32() {
 fn garbage_never_panics_f64() {
     never_panics::<f64>();
 }
+
+#[test]
+fn curving_creep_is_not_a_fault() {
+    // A creep that bends (0.5 V_inc·(1 − e^(−t/T)), T = 50 and 100 ns, i.e.
+    // 100–200 samples, against a 4-sample edge) leaves residue in the filter;
+    // requiring the step to beat the creep over its own edge keeps it out.
+    for tc in [50e-9, 100e-9] {
+        for seed in 0..50 {
+            let mut s = Synth::new(N, DT, T0, Edge::RaisedCosine(RISE));
+            s.creep_exp = (0.5, tc);
+            s.steps.push((1500e-9, 1.0));
+            s.noise_v = 0.002;
+            s.seed = seed;
+            let x = to::<f32>(&s.render());
+            let a = analyse::<f32>(&x, DT);
+            assert_eq!(kinds(&a), vec![EventKind::OpenEnd], "T {tc}, seed {seed}");
+        }
+    }
+}

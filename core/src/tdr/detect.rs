@@ -16,7 +16,9 @@
 //! **Confirmation and measurement.** For each lobe peaking at sample c, the
 //! levels before and after are means over `w` samples outside the edge
 //! (gap g = ⌈0.85·t_r/Δt⌉ + 1 each side), creep-corrected; the step
-//! Δv must exceed max(k·σ·√(2/w), ρ_min·|V_inc|) or the lobe is dropped. The
+//! Δv must exceed max(k·σ·√(2/w), ρ_min·|V_inc|) and the creep over its own
+//! edge, |s|·2g, or the lobe is dropped (a curving creep leaves residue in
+//! the filter that this rejects). The
 //! event time is the 50 % crossing between the two levels, linearly
 //! interpolated (the same rule as time zero). ρ = Δv/V_inc; the cumulative
 //! reflection after the event Γ = (v_after − v_pre)/V_inc − 1 gives
@@ -434,7 +436,8 @@ impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, T, S, N> {
         let centre_b = T::from_usize(b0 + b1) * T::half();
         let centre_a = T::from_usize(a0 + a1) * T::half();
         let dv = ma - mb - slope * (centre_a - centre_b);
-        if dv.abs() < self.level_thr {
+        // A step must exceed the noise and the creep over its own edge (2g).
+        if dv.abs() < self.level_thr.max(slope.abs() * T::from_usize(2 * g)) {
             self.rejected += 1;
             return None;
         }

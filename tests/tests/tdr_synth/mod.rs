@@ -177,6 +177,9 @@ pub struct Synth {
     pub skin_steps: Vec<(f64, f64, f64)>,
     /// Linear creep after the launch, V_inc per s.
     pub creep_per_s: f64,
+    /// Curving creep after the launch: (amplitude, V_inc; time constant, s)
+    /// as A·(1 − e^(−t/T)).
+    pub creep_exp: (f64, f64),
     pub noise_v: f64,
     pub seed: u64,
 }
@@ -194,6 +197,7 @@ impl Synth {
             lumped: vec![],
             skin_steps: vec![],
             creep_per_s: 0.0,
+            creep_exp: (0.0, 1.0),
             noise_v: 0.0,
             seed: 1,
         }
@@ -227,6 +231,9 @@ impl Synth {
                     }
                 }
                 v += self.creep_per_s * t.max(0.0);
+                if t > 0.0 {
+                    v += self.creep_exp.0 * (1.0 - (-t / self.creep_exp.1).exp());
+                }
                 self.pre_v + self.v_inc * v + self.noise_v * rng.gauss()
             })
             .collect()
