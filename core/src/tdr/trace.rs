@@ -367,11 +367,11 @@ fn rise_around<T: Real, S: Samples<T> + ?Sized>(
     t50: T,
 ) -> Option<T> {
     let sign = incident_v.signum();
-    let level = |f: f64| pre_v + incident_v * T::lit(f);
+    let level = |f: T| pre_v + incident_v * f;
     let i50 = t50.floor().to_i64_sat().max(0) as usize;
     let i50c = (t50.ceil().to_i64_sat().max(0) as usize).min(len.saturating_sub(1));
-    let t10 = crossing_backward(s, 0, i50c, level(0.1), sign)?;
-    let t90 = crossing_forward(s, i50, len, level(0.9), sign)?;
+    let t10 = crossing_backward(s, 0, i50c, level(T::lit(0.1)), sign)?;
+    let t90 = crossing_forward(s, i50, len, level(T::lit(0.9)), sign)?;
     if t90 > t10 {
         Some(t90 - t10)
     } else {
@@ -495,15 +495,15 @@ fn measure_launch<T: Real, S: Samples<T> + ?Sized>(
     }
     let _ = sign;
     let sign = incident_v.signum();
-    let level = |f: f64| pre_v + incident_v * T::lit(f);
+    let level = |f: T| pre_v + incident_v * f;
     let lo_search = i_q.saturating_sub(len);
     let t50 = match given_t0 {
         Some(t0) => t0,
         None => {
             // The 50 % crossing at or before the quarter-excursion sample
             // (scan back), else forward.
-            crossing_backward(s, lo_search, i_q, level(0.5), sign)
-                .or_else(|| crossing_forward(s, i_q, len, level(0.5), sign))
+            crossing_backward(s, lo_search, i_q, level(T::lit(0.5)), sign)
+                .or_else(|| crossing_forward(s, i_q, len, level(T::lit(0.5)), sign))
                 .ok_or(Error::Undefined("time_zero"))?
         }
     };
