@@ -137,15 +137,23 @@ test('fault distance matches d = v·t/2 and its interval', async () => {
   close(d.value, ref.d, 1e-12, 'distance (data)');
   close(shown(d.text), ref.d, 5e-4, 'distance (shown)');
   assert.match(d.text, / m$/);
-  close((await value('#fault [data-key="lo"]')).value, ref.lo, 1e-12, 'nearest');
-  close((await value('#fault [data-key="hi"]')).value, ref.hi, 1e-12, 'farthest');
+  const interval = page.locator('#fault [data-key="interval"]');
+  close(Number(await interval.getAttribute('data-lo')), ref.lo, 1e-12, 'nearest');
+  close(Number(await interval.getAttribute('data-hi')), ref.hi, 1e-12, 'farthest');
+  const [lo, hi] = (await interval.textContent()).split(' to ').map(shown);
+  close(lo, ref.lo, 5e-4, 'nearest (shown)');
+  close(hi, ref.hi, 5e-4, 'farthest (shown)');
   close((await value('#fault [data-key="other"]')).value, ref.d / FT, 1e-12, 'in feet');
+  const vel = page.locator('#fault [data-key="velocity"]');
+  close(Number(await vel.getAttribute('data-value')), 0.78 * C0, 1e-12, 'velocity');
+  close(Number(await vel.getAttribute('data-lo')), 0.77 * C0, 1e-12, 'lowest velocity');
+  close(Number(await vel.getAttribute('data-hi')), 0.79 * C0, 1e-12, 'highest velocity');
   const half = await value('#fault [data-key="dt_half"]');
   close(half.value, ref.half, 1e-12, 'timing half-width');
   assert.equal(half.text, '362.5 ps');
   // Without interpolation the quantisation is half a sample.
   await page.uncheck('#fault-interp');
-  close((await value('#fault [data-key="hi"]')).value, faultRef({ ...input, interp: false }).hi, 1e-12, 'farthest, raw samples');
+  close(Number(await interval.getAttribute('data-hi')), faultRef({ ...input, interp: false }).hi, 1e-12, 'farthest, raw samples');
   assert.ok(await page.locator('#fault .plot svg').isVisible(), 'interval drawn');
   await page.locator('#fault').screenshot({ path: join(artifacts, 'section-fault.png') });
 });

@@ -7,7 +7,8 @@
 //   inputs: [{ key, label, unit | type: 'choice' | 'check', value, hint, param, options }]
 //            unit: a dimension name of core's parse_quantity ("time", "length", …)
 //            param: the core's parameter name, so a core error marks this field
-//   compute(values, core, ctx) -> { rows: [{ key, label, text, value, main, note }], plot? }
+//   compute(values, core, ctx) -> { rows: [{ key, label, text, value, data, main, note }], plot? }
+//            value (and data: {name: number}) go into data-* attributes for tests
 //   draw(host, result, ctx)  optional, draws result.plot into the section's plot area
 //   planned: 'what it will do'  instead of inputs/compute: a place kept for later
 'use strict';
@@ -181,6 +182,7 @@ const Echo = (() => {
     u.rows.textContent = '';
     for (const r of out.rows) {
       const dd = h('dd', { 'data-key': r.key, 'data-value': Number.isFinite(r.value) ? String(r.value) : null, text: r.text });
+      for (const [k, x] of Object.entries(r.data || {})) dd.dataset[k] = String(x);
       u.rows.append(h('div', { class: `row${r.main ? ' main' : ''}${r.note ? ' note' : ''}` }, h('dt', { text: r.label }), dd));
     }
     if (spec.draw) spec.draw(u.plot, out, ctx);

@@ -25,11 +25,11 @@ const Plot = (() => {
   function interval(host, { best, lo, hi, unit, label }) {
     host.textContent = '';
     if (![best, lo, hi].every(Number.isFinite) || hi <= 0) return;
-    const W = 560, H = 74, L = 14, R = 18, y = 30;
+    const W = Math.max(240, Math.round(host.clientWidth || 320)), H = 74, L = 4, R = 4, y = 30;
     const step = niceStep(hi * 1.15, 5);
     const max = Math.ceil((hi * 1.08) / step) * step;
     const X = (v) => L + ((W - L - R) * v) / max;
-    const root = svg('svg', { viewBox: `0 0 ${W} ${H}`, role: 'img', 'aria-label': label });
+    const root = svg('svg', { viewBox: `0 0 ${W} ${H}`, width: W, height: H, role: 'img', 'aria-label': label });
     root.append(svg('title', {}, label));
     root.append(svg('rect', { class: 'band', x: X(lo), y: y - 11, width: Math.max(2, X(hi) - X(lo)), height: 22, rx: 3 }));
     root.append(svg('line', { class: 'cable', x1: X(0), y1: y, x2: X(max), y2: y }));

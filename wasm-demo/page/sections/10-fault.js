@@ -36,12 +36,11 @@ Echo.section({
       return {
         rows: [
           { key: 'distance', label: 'Distance to the reflection', text: d.text, value: d.value, main: true },
-          { key: 'interval', label: 'Interval', text: `${lo.text.split(' ')[0]} to ${hi.text}`, value: null },
-          { key: 'lo', label: 'Nearest', text: lo.text, value: lo.value },
-          { key: 'hi', label: 'Farthest', text: hi.text, value: hi.value },
+          { key: 'interval', label: 'Interval', text: `${lo.text.split(' ')[0]} to ${hi.text}`, data: { lo: lo.value, hi: hi.value } },
           { key: 'other', label: imperial ? 'In metres' : 'In feet', text: other, value: imperial ? r.distance_m : r.distance_ft },
           { key: 'dt_half', label: 'Timing uncertainty (±)', text: Fmt.si(r.t_half_width_s, 's'), value: r.t_half_width_s },
-          { key: 'velocity', label: 'Velocity used', text: `${v1(vn)} (${Fmt.sig(vl / 1e6)} to ${Fmt.sig(vh / 1e6)})`, value: vn },
+          { key: 'velocity', label: 'Velocity used', text: `${v1(vn)}`, value: vn, data: { lo: vl, hi: vh } },
+          { key: 'velocity_range', label: 'Velocity range', text: `${Fmt.sig(vl / 1e6)} to ${v1(vh)}` },
         ],
         plot: { best: d.value, lo: lo.value, hi: hi.value, unit: imperial ? 'ft' : 'm' },
       };
