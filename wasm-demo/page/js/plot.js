@@ -31,7 +31,7 @@ const Plot = (() => {
     const X = (v) => L + ((W - L - R) * v) / max;
     const root = svg('svg', { viewBox: `0 0 ${W} ${H}`, width: W, height: H, role: 'img', 'aria-label': label });
     root.append(svg('title', {}, label));
-    root.append(svg('rect', { class: 'band', x: X(lo), y: y - 11, width: Math.max(2, X(hi) - X(lo)), height: 22, rx: 3 }));
+    root.append(svg('rect', { class: 'band', x: X(lo), y: y - 11, width: Math.max(6, X(hi) - X(lo)), height: 22, rx: 3 }));
     root.append(svg('line', { class: 'cable', x1: X(0), y1: y, x2: X(max), y2: y }));
     root.append(svg('line', { class: 'mark', x1: X(best), y1: y - 16, x2: X(best), y2: y + 16 }));
     root.append(svg('text', { class: 'strong', x: X(best), y: y - 19, 'text-anchor': 'middle' }, 'fault?'));
