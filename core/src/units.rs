@@ -30,6 +30,15 @@
 //! to the target type. The result is within 1 ulp of a correctly rounded
 //! conversion (exact for integers and for most short inputs) in both `f32` and
 //! `f64`; the `f32` path uses no double precision.
+//!
+//! ```
+//! use echoline::units::{parse_quantity, Unit};
+//! assert_eq!(parse_quantity::<f64>("2.5 ns", Unit::Time)?, 2.5e-9);
+//! assert_eq!(parse_quantity::<f32>("4.7p", Unit::Capacitance)?, 4.7e-12);
+//! assert_eq!(parse_quantity::<f64>("250 m/us", Unit::Velocity)?, 2.5e8);
+//! assert!(parse_quantity::<f64>("5 ms", Unit::Length).is_err());
+//! # Ok::<(), echoline::Error>(())
+//! ```
 
 use crate::error::{Error, Result, TextPos};
 use crate::scalar::Real;
