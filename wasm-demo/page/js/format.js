@@ -6,6 +6,7 @@ const Fmt = (() => {
     [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
   ];
   const MINUS = '\u2212';
+  const SUP = { '-': '⁻', 0: '⁰', 1: '¹', 2: '²', 3: '³', 4: '⁴', 5: '⁵', 6: '⁶', 7: '⁷', 8: '⁸', 9: '⁹' };
 
   /** `x` to `n` significant digits, no exponent for ordinary magnitudes, no "-0". */
   function sig(x, n = 4) {
@@ -14,12 +15,13 @@ const Fmt = (() => {
     if (x === 0) return '0';
     const a = Math.abs(x);
     let s;
-    if (a >= 1e-4 && a < 10 ** n) {
-      const digits = Math.max(0, n - 1 - Math.floor(Math.log10(a)));
-      s = a.toFixed(Math.min(digits, 12));
+    const r = Number(a.toPrecision(n)); // rounded first: 999.96 → 1000, not 1000.0
+    if (r >= 1e-4 && r < 1e6) {
+      const digits = Math.max(0, n - 1 - Math.floor(Math.log10(r)));
+      s = r.toFixed(Math.min(digits, 12));
     } else {
       const [m, e] = a.toExponential(n - 1).split('e');
-      s = `${m}×10^${Number(e)}`;
+      s = `${m}×10${[...String(Number(e))].map((c) => SUP[c]).join('')}`;
     }
     if (Number(s.split('×')[0]) === 0) return '0';
     return (x < 0 ? MINUS : '') + s;
