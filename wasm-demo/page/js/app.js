@@ -243,6 +243,8 @@ const Echo = (() => {
       e.target.value = '';
     });
     document.getElementById('print').addEventListener('click', () => window.print());
+    let resize = 0; // plots are drawn at the width they have: redraw after a resize
+    window.addEventListener('resize', () => { clearTimeout(resize); resize = setTimeout(runAll, 150); });
     window.addEventListener('beforeprint', () => {
       const d = new Date();
       const p = (n) => String(n).padStart(2, '0');
