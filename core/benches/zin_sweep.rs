@@ -6,8 +6,8 @@
 //! `tests/scripts/bench_numpy_zin.py` (which can also run this bench and print the ratio).
 
 use criterion::{black_box, criterion_group, criterion_main, Criterion, Throughput};
-use echoline::line::{LineModel, LinePoint};
-use echoline::math::complex::Cx;
+use echoline::line::{LineModel, LinePoint, Warnings};
+use echoline::math::complex::{self, Cx};
 use echoline::network::{Cascade, Load, Rlc};
 use echoline::{error, Impedance, Real, Result};
 
@@ -20,15 +20,29 @@ struct ConstRlgc<T> {
 }
 
 impl<T: Real> LineModel<T> for ConstRlgc<T> {
+    /// γ = √(Z·Y) (principal root, Re γ ≥ 0), Zc = Z/γ: one complex square root
+    /// and one division. For the passive values used here (both Z and Y in the
+    /// first quadrant) this is the same branch as √Z·√Y and √Z/√Y.
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let w = T::two_pi() * f;
-        LinePoint::from_zy(
-            f,
-            Cx::new(self.r, w * self.l),
-            Cx::new(self.g, w * self.c),
-            Some(Cx::new((self.l / self.c).sqrt(), T::zero())),
-        )
+        let z = Cx::new(self.r, w * self.l);
+        let y = Cx::new(self.g, w * self.c);
+        let gamma = complex::sqrt(z * y);
+        let zc = if gamma.re == T::zero() && gamma.im == T::zero() {
+            Impedance::ohms((self.l / self.c).sqrt())
+        } else {
+            Impedance::Finite(complex::div(z, gamma))
+        };
+        Ok(LinePoint {
+            freq_hz: f,
+            z_ohm_per_m: z,
+            y_s_per_m: y,
+            gamma_per_m: gamma,
+            zc_ohm: zc,
+            model_loss_split_np_per_m: None,
+            warnings: Warnings::NONE,
+        })
     }
 }
 

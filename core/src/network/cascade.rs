@@ -195,8 +195,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
     /// `out` is partly written. Frequencies are processed in blocks of
     /// [`SWEEP_BLOCK`] (element by element across the block, so that the
     /// independent frequencies overlap in the pipeline); the only memory used
-    /// besides `out` is a stack block of `SWEEP_BLOCK × 2` complex numbers
-    /// (512 bytes in f64, 256 in f32). `out` holds
+    /// besides `out` is a stack block of `SWEEP_BLOCK × 4` complex numbers
+    /// (1 KiB in f64, 512 bytes in f32). `out` holds
     /// `size_of::<Impedance<T>>()` = 24 bytes per point in f64, 12 in f32.
     pub fn input_impedance_sweep(
         &self,
@@ -239,13 +239,57 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             };
         }
         for e in self.elements.iter().rev() {
-            if let Element::Line { length_m, .. } = e {
-                if *length_m == T::zero() {
-                    continue;
+            match e {
+                Element::Line { model, length_m } => {
+                    let l = *length_m;
+                    if l == T::zero() {
+                        continue;
+                    }
+                    // Phase 1: evaluate the line at every frequency of the block
+                    // (independent work); Zc and e^{−2γl} are kept, a section
+                    // without a finite non-zero Zc is applied at once by its ABCD map
+                    // and marked with Zc = 0.
+                    let mut zcs = [zero; SWEEP_BLOCK];
+                    let mut es = [zero; SWEEP_BLOCK];
+                    for (((zc_o, e_o), st), f) in zcs
+                        .iter_mut()
+                        .zip(es.iter_mut())
+                        .zip(state.iter_mut())
+                        .zip(freqs)
+                    {
+                        let p = model.at(*f)?;
+                        match p.zc_ohm {
+                            Impedance::Finite(zc)
+                                if inf_norm(zc) > T::zero() && complex::is_finite(zc) =>
+                            {
+                                let g = p.gamma_per_m;
+                                // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
+                                *e_o = complex::exp_neg_turns(
+                                    T::two() * g.re * l,
+                                    g.im * l * T::FRAC_1_PI(),
+                                );
+                                *zc_o = zc;
+                            }
+                            _ => {
+                                let m = Abcd::line(&p, l)?;
+                                let (n, d) = *st;
+                                *st = normalise(m.a * n + m.b * d, snap_sum(m.c * n, m.d * d))?;
+                            }
+                        }
+                    }
+                    // Phase 2: the reflection recursion, a short chain per frequency.
+                    for ((st, zc), e) in state.iter_mut().zip(zcs.iter()).zip(es.iter()) {
+                        if zc.re == T::zero() && zc.im == T::zero() {
+                            continue;
+                        }
+                        *st = line_step(*st, *zc, *e)?;
+                    }
                 }
-            }
-            for (st, f) in state.iter_mut().zip(freqs.iter()) {
-                step(e, *f, st)?;
+                _ => {
+                    for (st, f) in state.iter_mut().zip(freqs.iter()) {
+                        step(e, *f, st)?;
+                    }
+                }
             }
         }
         for (o, st) in out.iter_mut().zip(state.iter()) {
@@ -266,32 +310,8 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
     let one = Cx::new(T::one(), T::zero());
     let (mut n, mut d) = *st;
     match e {
-        Element::Line { model, length_m } => {
-            let l = *length_m;
-            let p = model.at(f)?;
-            match p.zc_ohm {
-                Impedance::Finite(zc) if inf_norm(zc) > T::zero() && complex::is_finite(zc) => {
-                    let g = p.gamma_per_m;
-                    // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
-                    let a2 = T::two() * g.re * l;
-                    let turns = g.im * l * T::FRAC_1_PI();
-                    let e = complex::exp_neg_turns(a2, turns);
-                    let zd = zc * d;
-                    let gn = n - zd; // numerator of Γ_L
-                    let gd = n + zd; // denominator of Γ_L
-                    let ge = gn * e; // numerator of Γin (same denominator)
-                    let dd = gd - ge;
-                    let tiny = T::lit(8.0) * T::EPS * inf_norm(gd).max(inf_norm(ge));
-                    d = if inf_norm(dd) <= tiny { zero } else { dd };
-                    n = zc * (gd + ge);
-                }
-                _ => {
-                    let m = Abcd::line(&p, l)?;
-                    let nn = m.a * n + m.b * d;
-                    d = snap_sum(m.c * n, m.d * d);
-                    n = nn;
-                }
-            }
+        Element::Line { .. } => {
+            // Lines are handled block-wise in `walk_block`.
         }
         Element::Series(ld) => match ld.impedance_unchecked(f) {
             Impedance::Open => {
@@ -315,6 +335,33 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
         },
         Element::Transformer { turns_ratio } => d = d * (*turns_ratio * *turns_ratio),
     }
+    *st = normalise(n, d)?;
+    Ok(())
+}
+
+/// Across a line of characteristic impedance `zc` with e = e^{−2γl}:
+/// Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e, Zin = Zc(1 + Γin)/(1 − Γin),
+/// kept as a ratio (n', d'). A 1 − Γin within 8ε of its terms is exactly 0.
+#[inline(always)]
+fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
+    let (n, d) = st;
+    let zd = zc * d;
+    let gn = n - zd; // numerator of Γ_L
+    let gd = n + zd; // denominator of Γ_L
+    let ge = gn * e; // numerator of Γin (same denominator)
+    let dd = gd - ge;
+    let tiny = T::lit(8.0) * T::EPS * inf_norm(gd).max(inf_norm(ge));
+    let dd = if inf_norm(dd) <= tiny {
+        Cx::new(T::zero(), T::zero())
+    } else {
+        dd
+    };
+    normalise(zc * (gd + ge), dd)
+}
+
+/// Scales (n, d) so that the largest part has modulus 1.
+#[inline(always)]
+fn normalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
     let m = inf_norm(n).max(inf_norm(d));
     if !m.is_finite() {
         return Err(Error::NonFinite("input_impedance"));
@@ -323,8 +370,7 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
         return Err(Error::Undefined("input_impedance"));
     }
     let k = T::one() / m;
-    *st = (n * k, d * k);
-    Ok(())
+    Ok((n * k, d * k))
 }
 
 #[cfg(test)]
