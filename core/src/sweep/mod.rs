@@ -1,7 +1,62 @@
 //! Frequency sweeps: streaming readers and distance-to-fault transforms.
 //!
-//! * [`touchstone`]: Touchstone 1.x / 2.0 reader, line by line, no heap.
+//! A reflection sweep Γ(fₙ) on a uniform grid fₙ = f₀ + n·Δf is turned into
+//! reflection against distance by an inverse Fourier sum with a symmetric
+//! window, d = v·t/2 (see [`dtf`] for the formulas and sources):
+//!
+//! * [`touchstone`]: Touchstone 1.x / 2.0 reader (IBIS Open Forum), line by line,
+//!   no heap, errors with line and column.
 //! * [`csv`]: CSV sweeps with a header (frequency plus re/im or magnitude/phase).
+//! * [`grid`]: frequency-grid checks and the one time/distance grid builder
+//!   ([`grid::distance_grid`]): alias-free range v(N−1)/(2·span), resolution,
+//!   bin spacing, velocity and its kind.
+//! * [`dtf`]: band-pass (FFT or chirp-z zoom), low-pass impulse and step,
+//!   line-model mapping (dispersion-corrected, cable-loss compensated).
+//! * [`peaks`]: peaks with distance interval, ρ and return loss.
+//!
+//! Windows and their figures (Harris, "On the use of windows for harmonic
+//! analysis with the discrete Fourier transform", Proc. IEEE 66(1):51–83, 1978;
+//! values recomputed for long symmetric windows; resolution = k₆·v/(2·span)
+//! in band-pass):
+//!
+//! | window | highest side lobe | 6 dB width k₆ (bins) |
+//! | --- | --- | --- |
+//! | rectangular | −13.3 dB | 1.21 |
+//! | Hann | −31.5 dB | 2.00 |
+//! | Hamming | −42.7 dB | 1.81 |
+//! | Kaiser β = 3π | −69.6 dB | 2.39 |
+//!
+//! ```
+//! use echoline::math::{complex::Cx, fft::{fill_twiddles, Fft}, window::Window};
+//! use echoline::sweep::{dtf::{band_pass_fft, Config}, peaks::{peaks_complex, Peak}};
+//! use echoline::timing::VelocityRange;
+//! // An open 7 m down a lossless VF 0.8 line, swept 10 MHz … 1 GHz.
+//! let n = 100;
+//! let v = 0.8 * 299_792_458.0;
+//! let mut f = [0.0f64; 100];
+//! let mut g = [Cx::new(0.0, 0.0); 100];
+//! for i in 0..n {
+//!     f[i] = 10e6 * (i + 1) as f64;
+//!     let ph = -2.0 * core::f64::consts::TAU * f[i] * 7.0 / v;
+//!     g[i] = Cx::from_polar(1.0, ph);
+//! }
+//! let mut table = [Cx::new(0.0, 0.0); 512];
+//! fill_twiddles(&mut table)?;
+//! let plan = Fft::new(&table)?;
+//! let cfg = Config { window: Window::Hann, velocity: VelocityRange::from_factor(0.8, 0.0)? };
+//! let mut out = [Cx::new(0.0, 0.0); 1024];
+//! let grid = band_pass_fft(&f, &g, &cfg, &plan, &mut out)?;
+//! assert!((grid.range_m - v / 20e6).abs() < 1e-6); // alias-free: 11.99 m
+//! let mut peaks: heapless::Vec<Peak<f64>, 8> = heapless::Vec::new();
+//! peaks_complex(&out, &grid, 0.5, &mut peaks)?;
+//! assert_eq!(peaks.len(), 1);
+//! assert!((peaks[0].distance.distance_m - 7.0).abs() < 0.05 * grid.resolution_m);
+//! assert!((peaks[0].rho - 1.0).abs() < 0.02);
+//! # Ok::<(), echoline::Error>(())
+//! ```
 pub mod csv;
+pub mod dtf;
+pub mod grid;
+pub mod peaks;
 mod text;
 pub mod touchstone;
