@@ -15,7 +15,8 @@
 //!   extended to negative frequencies by Γ(−f) = Γ(f)* and transformed to a real
 //!   impulse response h(t) = Σ_{k=−K}^{K} w_k·Γ_k·e^(+j2πkΔf·t) / Σ w_k (a window
 //!   of 2K + 1 samples centred on DC), or to the step response (its running
-//!   sum, normalised so that Γ = 1 gives a unit step). Missing harmonics below
+//!   sum from the last eighth of the period, normalised so that Γ = 1 gives a
+//!   unit step). Missing harmonics below
 //!   f₀ = k₀·Δf are extrapolated deterministically: linear magnitude and
 //!   unwrapped phase from the first two points, the DC phase snapped to the
 //!   nearest multiple of π (a real DC value), then magnitude and phase joined
@@ -50,7 +51,7 @@ use crate::math::window::Window;
 use crate::scalar::Real;
 use crate::timing::{VelocityKind, VelocityRange};
 
-use super::grid::{czero, distance_grid, DistanceGrid, FreqGrid, Mapping, Mode, Span};
+use super::grid::{czero, distance_grid, step_len, DistanceGrid, FreqGrid, Mapping, Mode, Span};
 
 /// Window and velocity of a transform.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -220,9 +221,10 @@ pub fn band_pass_zoom<T: Real>(
 /// Low-pass impulse or step response on the FFT grid of M = `out.len()` points
 /// (a power of two ≥ 2·(K + 1), K the highest harmonic); `work` holds ≥ M
 /// complex values. Impulse: `out[m]` at distance m·range/M. Step: the first
-/// M/2 values at m·range/M (the rest set to 0; the grid's length and range are
-/// halved, as the second half of the period is the negative time the step
-/// starts from).
+/// 7/8·M values at m·range/M (the rest set to 0; the grid's length and range
+/// are 7/8 of the period's, as its last eighth is the negative time the step
+/// sums from, see [`super::grid::STEP_TAIL_DIV`]; reflections must lie within
+/// that range).
 ///
 /// Errors: the sweep checks; [`Error::OutOfRange`]`("start_hz")` unless the
 /// first frequency is a whole multiple k₀ ≤ N of the step;
@@ -328,7 +330,7 @@ pub fn low_pass<T: Real>(
             }
         }
         LowPass::Step { .. } => {
-            let half = m / 2;
+            let half = step_len(m);
             let mut acc = T::zero();
             for v in w.iter().skip(half) {
                 acc = acc + v.re;

@@ -249,6 +249,16 @@ pub fn window_figures<T: Real>(window: &Window<T>) -> Result<WindowFigures<T>> {
     })
 }
 
+/// The step response treats the last 1/8 of the period as negative time (the
+/// tail, before t = 0, of the window's response to reflections near the
+/// reference plane), and reports the first 7/8.
+pub const STEP_TAIL_DIV: usize = 8;
+
+/// The part of an `m`-sample period a step response reports.
+pub(crate) fn step_len(m: usize) -> usize {
+    m - m / STEP_TAIL_DIV
+}
+
 /// Which transform a grid is for.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Mode {
@@ -256,7 +266,8 @@ pub enum Mode {
     BandPass,
     /// Low-pass impulse response (harmonic grid, real output).
     LowPassImpulse,
-    /// Low-pass step response (harmonic grid, real output, half the period).
+    /// Low-pass step response (harmonic grid, real output, the first
+    /// 1 − 1/[`STEP_TAIL_DIV`] of the period).
     LowPassStep,
 }
 
@@ -305,7 +316,7 @@ impl<T: Real> DistanceGrid<T> {
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum Span<T> {
     /// `points` samples from distance 0 in steps of range/points (the FFT grid;
-    /// for [`Mode::LowPassStep`] range/(2·points)… see the transform).
+    /// for [`Mode::LowPassStep`] only the first 7/8 of them).
     Fft {
         /// FFT length M.
         points: usize,
@@ -325,8 +336,8 @@ pub enum Span<T> {
 /// `window` (the one grid builder; every transform calls it).
 ///
 /// For [`Span::Fft`] the step is range/points; in [`Mode::LowPassStep`] the
-/// output covers half the period (`points/2` samples; the second half of the
-/// period is the negative time the step sums from).
+/// output and the reported range cover the first 7/8 of the period (see
+/// [`STEP_TAIL_DIV`]).
 ///
 /// Errors: [`Error::TooShort`] (`"points"`, 2); [`Error::Negative`]`("start_m")`;
 /// [`Error::OutOfRange`]`("stop_m")` unless stop > start;
@@ -358,7 +369,7 @@ pub fn distance_grid<T: Real>(
                 });
             }
             let len = if mode == Mode::LowPassStep {
-                points / 2
+                step_len(points)
             } else {
                 points
             };
@@ -381,7 +392,7 @@ pub fn distance_grid<T: Real>(
                 return Err(Error::OutOfRange("stop_m"));
             }
             let limit = if mode == Mode::LowPassStep {
-                range_m * T::half()
+                range_m * T::lit(1.0 - 1.0 / STEP_TAIL_DIV as f64)
             } else {
                 range_m
             };
@@ -399,7 +410,7 @@ pub fn distance_grid<T: Real>(
         t_start_s: start_m * to_t,
         t_step_s: step_m * to_t,
         range_m: if mode == Mode::LowPassStep {
-            range_m * T::half()
+            range_m * T::lit(1.0 - 1.0 / STEP_TAIL_DIV as f64)
         } else {
             range_m
         },

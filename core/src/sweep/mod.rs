@@ -60,3 +60,82 @@ pub mod grid;
 pub mod peaks;
 mod text;
 pub mod touchstone;
+
+use crate::error::{Error, Result};
+use crate::math::complex::Cx;
+use crate::scalar::Real;
+
+/// Which reader a file name calls for.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum FileKind {
+    /// Comma/semicolon/tab separated values with a header (`.csv`, `.txt`).
+    Csv,
+    /// Touchstone (`.sNp`, `.ts`, anything else).
+    Touchstone,
+}
+
+/// The reader for `file_name`: CSV for `.csv` / `.txt`, else Touchstone.
+pub fn file_kind(file_name: &str) -> FileKind {
+    match file_name.rsplit_once('.') {
+        Some((_, e)) if e.eq_ignore_ascii_case("csv") || e.eq_ignore_ascii_case("txt") => {
+            FileKind::Csv
+        }
+        _ => FileKind::Touchstone,
+    }
+}
+
+/// Reads a whole sweep file into caller buffers: frequencies (Hz) and the
+/// reflection at port 1 at `z_ref_ohm` ([`touchstone::Header::s11`]; a CSV
+/// holds Γ directly). Touchstone files of up to four ports are accepted
+/// (port count from `[Number of Ports]` or the `.sNp` name); noise data are
+/// skipped. Returns the number of points.
+///
+/// Errors: the readers' [`Error::Parse`] (line, column, expected);
+/// [`Error::Capacity`] (`"freqs_hz"`) when the buffers are too short;
+/// [`Error::LengthMismatch`]`("gamma")` unless both buffers have one length;
+/// [`touchstone::Header::s11`]'s errors.
+pub fn read_reflection<T: Real>(
+    text: &str,
+    file_name: &str,
+    z_ref_ohm: T,
+    freqs_hz: &mut [T],
+    gamma: &mut [Cx<T>],
+) -> Result<usize> {
+    if freqs_hz.len() != gamma.len() {
+        return Err(Error::LengthMismatch("gamma"));
+    }
+    let cap = freqs_hz.len();
+    let mut n = 0usize;
+    let mut put = |f: T, g: Cx<T>| -> Result<()> {
+        match (freqs_hz.get_mut(n), gamma.get_mut(n)) {
+            (Some(fs), Some(gs)) => {
+                *fs = f;
+                *gs = g;
+                n += 1;
+                Ok(())
+            }
+            _ => Err(Error::Capacity {
+                what: "freqs_hz",
+                capacity: cap,
+            }),
+        }
+    };
+    match file_kind(file_name) {
+        FileKind::Csv => {
+            csv::CsvSweep::<T>::new().read_str(text, |p| put(p.freq_hz, p.gamma))?;
+        }
+        FileKind::Touchstone => {
+            let mut r =
+                touchstone::Touchstone::<T, 4>::new(touchstone::ports_from_file_name(file_name));
+            for line in text.lines() {
+                let header = *r.header();
+                r.push_line(line, |rec| match rec {
+                    touchstone::Record::Network(p) => put(p.freq_hz, header.s11(p, z_ref_ohm)?),
+                    touchstone::Record::Noise(_) => Ok(()),
+                })?;
+            }
+            r.finish()?;
+        }
+    }
+    Ok(n)
+}

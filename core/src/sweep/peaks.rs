@@ -20,6 +20,9 @@ use crate::timing::Distance;
 
 use super::grid::DistanceGrid;
 
+/// A fixed-capacity list of up to `N` peaks (`Peaks::new()` makes an empty one).
+pub type Peaks<T, const N: usize> = Vec<Peak<T>, N>;
+
 /// One peak of a response.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Peak<T> {

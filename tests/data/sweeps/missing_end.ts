@@ -1,0 +1,5 @@
+[Version] 2.0
+# MHz S RI
+[Number of Ports] 1
+[Network Data]
+1 0 0

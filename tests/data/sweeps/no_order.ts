@@ -1,0 +1,6 @@
+[Version] 2.0
+# MHz S RI
+[Number of Ports] 2
+[Network Data]
+1 0 0 0 0 0 0 0 0
+[End]

@@ -1,0 +1,2 @@
+# MHz S RI
+[Version] 2.0
