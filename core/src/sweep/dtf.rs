@@ -103,15 +103,6 @@ fn window_sum<T: Real>(w: &Window<T>, n: usize) -> Result<T> {
     Ok(s)
 }
 
-/// e^(j2π·q·k/M) for q = f₀/Δf ≥ 0, the integer part of q·k reduced exactly.
-fn carrier<T: Real>(q_int: u64, q_frac: T, k: usize, m: usize) -> Cx<T> {
-    let mm = m.max(1) as u64;
-    let r = ((q_int % mm) * (k as u64 % mm)) % mm;
-    let turns = T::from_usize(r as usize) / T::from_usize(m.max(1))
-        + reduce_turns(q_frac * T::from_usize(k) / T::from_usize(m.max(1)));
-    phasor_turns(turns)
-}
-
 /// Band-pass transform onto the FFT grid of M = `out.len()` points (a power of
 /// two ≥ N): `out[k]` is the complex reflection at distance k·range/M.
 ///
@@ -143,22 +134,48 @@ pub fn band_pass_fft<T: Real>(
         Mode::BandPass,
         Span::Fft { points: m },
     )?;
-    let sw = window_sum(&cfg.window, n)?;
-    for (i, o) in out.iter_mut().enumerate() {
-        *o = match gamma.get(i) {
-            Some(g) => *g * cfg.window.value(i, n)?,
-            None => czero(),
-        };
+    // The integer part of q = f₀/Δf is a shift of the spectrum by q bins
+    // (index (q + n) mod M: exact, no carrier to multiply); only a fractional
+    // part needs the per-sample carrier e^(j2π·q_frac·k/M).
+    let q = fg.start_hz / fg.step_hz;
+    let qf = q.floor();
+    let q_int = (qf.to_i64_sat().max(0) as u64 % m as u64) as usize;
+    let q_frac = q - qf;
+    for o in out.iter_mut() {
+        *o = czero();
+    }
+    // The window is symmetric: one value serves samples i and N − 1 − i.
+    let mut sw = T::zero();
+    let (lo, hi) = gamma.split_at(n.div_ceil(2));
+    let mut j = q_int;
+    let mut j_hi = (q_int + n - 1) % m;
+    for (i, g) in lo.iter().enumerate() {
+        let wv = cfg.window.value(i, n)?;
+        sw = sw + wv;
+        if let Some(o) = out.get_mut(j) {
+            *o = *g * wv;
+        }
+        if let Some(gh) = hi.len().checked_sub(i + 1).and_then(|r| hi.get(r)) {
+            sw = sw + wv;
+            if let Some(o) = out.get_mut(j_hi) {
+                *o = *gh * wv;
+            }
+        }
+        j = if j + 1 == m { 0 } else { j + 1 };
+        j_hi = if j_hi == 0 { m - 1 } else { j_hi - 1 };
     }
     plan.inverse(out)?;
     let scale = T::from_usize(m) / sw;
-    let q = fg.start_hz / fg.step_hz;
-    let qf = q.floor();
-    let q_int = qf.to_i64_sat().max(0) as u64;
-    let q_frac = q - qf;
-    for (k, o) in out.iter_mut().enumerate() {
-        let c = carrier(q_int, q_frac, k, m);
-        *o = *o * c * scale;
+    if q_frac == T::zero() {
+        for o in out.iter_mut() {
+            *o = *o * scale;
+        }
+    } else {
+        let mt = T::from_usize(m);
+        for (k, o) in out.iter_mut().enumerate() {
+            let c = phasor_turns(reduce_turns(q_frac * T::from_usize(k) / mt));
+            *o = *o * c * scale;
+        }
     }
     Ok(grid)
 }
