@@ -400,6 +400,21 @@ fn dispersion<T: Real>() {
         "{:?}",
         pk[0].rho
     );
+    // The constant-velocity mapping (phase velocity at the centre) puts the
+    // open further from 20 m than the corrected mapping does, and lower.
+    let constant = ModelOptions {
+        dispersion_corrected: false,
+        loss_compensated: true,
+    };
+    let g2 = band_pass_model(&f, &g, &cfg, &line, constant, win, &mut out).unwrap();
+    assert_eq!(g2.mapping, Mapping::Constant);
+    let (imax, pmax) = out
+        .iter()
+        .enumerate()
+        .map(|(i, z)| (i, z.norm().to_f64_lossless()))
+        .fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
+    let d2 = g2.distance_m(T::from_usize(imax)).to_f64_lossless();
+    assert!((d2 - 20.0).abs() > (d - 20.0).abs() || pmax < pk[0].rho.to_f64_lossless());
     // Without loss compensation the open is much weaker (e^(−2αd), α ≈ R/(2Zc)).
     let plain = ModelOptions {
         dispersion_corrected: true,

@@ -30,7 +30,7 @@ use crate::error::{Error, Result};
 use crate::math::complex::{self, cx, Cx};
 use crate::scalar::Real;
 
-use super::text::{err_at, number};
+use super::text::{err_at, lines, number};
 
 /// Most columns a header may have.
 pub const MAX_COLUMNS: usize = 32;
@@ -119,7 +119,7 @@ impl<T: Real> CsvSweep<T> {
     where
         F: FnMut(SweepPoint<T>) -> Result<()>,
     {
-        for line in text.lines() {
+        for line in lines(text) {
             self.push_line(line, &mut sink)?;
         }
         self.finish()

@@ -139,16 +139,20 @@ pub fn band_pass_fft<T: Real>(
     // part needs the per-sample carrier e^(j2π·q_frac·k/M).
     let q = fg.start_hz / fg.step_hz;
     let qf = q.floor();
-    let q_int = (qf.to_i64_sat().max(0) as u64 % m as u64) as usize;
+    let q_int = (qf.to_i64_sat().max(0) as u64)
+        .checked_rem(m as u64)
+        .unwrap_or(0) as usize;
     let q_frac = q - qf;
     for o in out.iter_mut() {
         *o = czero();
     }
     // The window is symmetric: one value serves samples i and N − 1 − i.
     let mut sw = T::zero();
-    let (lo, hi) = gamma.split_at(n.div_ceil(2));
+    let (lo, hi) = gamma
+        .split_at_checked(n.div_ceil(2))
+        .ok_or(Error::LengthMismatch("gamma"))?;
     let mut j = q_int;
-    let mut j_hi = (q_int + n - 1) % m;
+    let mut j_hi = (q_int + n - 1).checked_rem(m).unwrap_or(0);
     for (i, g) in lo.iter().enumerate() {
         let wv = cfg.window.value(i, n)?;
         sw = sw + wv;
@@ -219,7 +223,10 @@ pub fn band_pass_zoom<T: Real>(
         what: "work",
         capacity: cap,
     })?;
-    let (x, scratch) = w.split_at_mut(n);
+    let (x, scratch) = w.split_at_mut_checked(n).ok_or(Error::Capacity {
+        what: "work",
+        capacity: cap,
+    })?;
     for (i, (xo, g)) in x.iter_mut().zip(gamma.iter()).enumerate() {
         *xo = *g * cfg.window.value(i, n)?;
     }
@@ -267,7 +274,7 @@ pub fn low_pass<T: Real>(
     let fg = FreqGrid::new(fg.step_hz * T::from_usize(k0), fg.step_hz, n)?;
     let kmax = k0 + n - 1;
     let m = out.len();
-    let need = 2 * (kmax + 1);
+    let need = kmax.saturating_add(1).saturating_mul(2);
     if m < need {
         return Err(Error::TooShort {
             what: "out",
@@ -611,5 +618,34 @@ mod tests {
             low_pass(&f, &g, &cfg, step, &plan, &mut w, &mut h).unwrap_err(),
             Error::Unreachable("rise_time_s")
         );
+    }
+}
+
+#[cfg(test)]
+mod extrapolation_tests {
+    use super::*;
+
+    #[test]
+    fn dc_is_real_and_phase_continuous() {
+        // A short behind a delay: Γ = −e^(−j2π·k·0.01) at k = 3, 4 (k₀ = 3).
+        let g = |k: f64| {
+            let p = phasor_turns(-0.01 * k);
+            cx(-p.re, -p.im)
+        };
+        let gamma = [g(3.0), g(4.0)];
+        let e = Extrapolation::new(&gamma, 3);
+        let dc = e.at(0);
+        assert!((dc.re + 1.0).abs() < 1e-12 && dc.im == 0.0, "{dc:?}");
+        // The joined phase is linear from −½ turn to the first measured bin.
+        for k in 1..3 {
+            let z = e.at(k);
+            assert!((complex::abs(z) - 1.0).abs() < 1e-12);
+            let want = g(k as f64);
+            assert!((z - want).norm() < 1e-9, "k {k}: {z:?} vs {want:?}");
+        }
+        // f32 as well.
+        let gf = [cx(-1.0f32, 0.0), cx(-1.0f32, 0.0)];
+        let dc = Extrapolation::new(&gf, 2).at(0);
+        assert!((dc.re + 1.0).abs() < 1e-6 && dc.im == 0.0);
     }
 }

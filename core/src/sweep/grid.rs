@@ -107,7 +107,7 @@ impl<T: Real> FreqGrid<T> {
 
     /// Span (N − 1)·Δf, Hz.
     pub fn span_hz(&self) -> T {
-        self.step_hz * T::from_usize(self.len - 1)
+        self.step_hz * T::from_usize(self.len.saturating_sub(1))
     }
 
     /// Last frequency, Hz.
@@ -392,7 +392,7 @@ pub fn distance_grid<T: Real>(
                 return Err(Error::OutOfRange("stop_m"));
             }
             let limit = if mode == Mode::LowPassStep {
-                range_m * T::lit(1.0 - 1.0 / STEP_TAIL_DIV as f64)
+                range_m * T::lit(0.875) // 1 − 1/STEP_TAIL_DIV
             } else {
                 range_m
             };
@@ -410,7 +410,7 @@ pub fn distance_grid<T: Real>(
         t_start_s: start_m * to_t,
         t_step_s: step_m * to_t,
         range_m: if mode == Mode::LowPassStep {
-            range_m * T::lit(1.0 - 1.0 / STEP_TAIL_DIV as f64)
+            range_m * T::lit(0.875) // 1 − 1/STEP_TAIL_DIV
         } else {
             range_m
         },

@@ -127,7 +127,7 @@ pub fn read_reflection<T: Real>(
         FileKind::Touchstone => {
             let mut r =
                 touchstone::Touchstone::<T, 4>::new(touchstone::ports_from_file_name(file_name));
-            for line in text.lines() {
+            for line in text::lines(text) {
                 let header = *r.header();
                 r.push_line(line, |rec| match rec {
                     touchstone::Record::Network(p) => put(p.freq_hz, header.s11(p, z_ref_ohm)?),
@@ -138,4 +138,53 @@ pub fn read_reflection<T: Real>(
         }
     }
     Ok(n)
+}
+
+#[cfg(test)]
+mod tests {
+    extern crate std;
+    use super::*;
+    use std::string::String;
+
+    /// Random printable text (and a few control bytes) must never panic.
+    fn garbage<T: Real>() {
+        let mut s: u64 = 0x2545_F491_4F6C_DD1D;
+        let alphabet = b"0123456789.+-eE !#[]\t,;\"abcdefghijklmnopqrstuvwxyzSZYRIMADBGHz_\r";
+        let mut f = [T::zero(); 16];
+        let mut g = [Cx::new(T::zero(), T::zero()); 16];
+        let heads = [
+            "",
+            "# MHz S RI R 50\n",
+            "[Version] 2.0\n[Number of Ports] 2\n[Two-Port Data Order] 12_21\n[Network Data]\n",
+            "freq,re,im\n",
+            "f,db,phase\n",
+        ];
+        for round in 0..2000 {
+            let mut text = String::from(heads[round % heads.len()]);
+            let len = (round * 7) % 200;
+            for _ in 0..len {
+                s ^= s << 13;
+                s ^= s >> 7;
+                s ^= s << 17;
+                let c = alphabet[(s % alphabet.len() as u64) as usize];
+                text.push(if s % 11 == 0 { '\n' } else { c as char });
+            }
+            for name in ["x.s1p", "x.s2p", "x.s4p", "x.ts", "x.csv"] {
+                let _ = read_reflection(&text, name, T::lit(50.0), &mut f, &mut g);
+            }
+        }
+    }
+
+    #[test]
+    fn readers_survive_garbage() {
+        garbage::<f32>();
+        garbage::<f64>();
+    }
+
+    #[test]
+    fn file_kinds() {
+        assert_eq!(file_kind("a.CSV"), FileKind::Csv);
+        assert_eq!(file_kind("a.s2p"), FileKind::Touchstone);
+        assert_eq!(file_kind("noext"), FileKind::Touchstone);
+    }
 }

@@ -22,6 +22,24 @@ pub(crate) fn err_at(line: u32, offset: usize, expected: &'static str) -> Error 
     }
 }
 
+/// Lines of `s` split at `\n`, each without a trailing `\r` (like
+/// `str::lines`, written with checked slicing only).
+pub(crate) fn lines(s: &str) -> impl Iterator<Item = &str> {
+    let mut rest = Some(s);
+    core::iter::from_fn(move || {
+        let r = rest?;
+        let (line, next) = match r.find('\n') {
+            Some(i) => (r.get(..i).unwrap_or(""), r.get(i + 1..)),
+            None => (r, None),
+        };
+        rest = next.filter(|t| !t.is_empty());
+        if next.is_none() && line.is_empty() {
+            return None;
+        }
+        Some(line.strip_suffix('\r').unwrap_or(line))
+    })
+}
+
 /// The part of a line before a comment character `c` (e.g. `!`).
 #[inline]
 pub(crate) fn before_comment(line: &str, c: u8) -> &str {
@@ -91,6 +109,7 @@ pub(crate) fn eq_ci(a: &str, b: &str) -> bool {
 
 #[cfg(test)]
 mod tests {
+    extern crate std;
     use super::*;
 
     #[test]
@@ -113,6 +132,15 @@ mod tests {
         assert_eq!(number::<f64>("1e999"), None);
         assert_eq!(number::<f64>(""), None);
         assert_eq!(number::<f64>("0.1"), Some(0.1));
+    }
+
+    #[test]
+    fn lines_like_std() {
+        for t in ["a\nb", "a\r\nb\n", "", "\n\n", "x", "a\n\nb\r\n"] {
+            let mine: std::vec::Vec<&str> = lines(t).collect();
+            let std: std::vec::Vec<&str> = t.lines().collect();
+            assert_eq!(mine, std, "{t:?}");
+        }
     }
 
     #[test]

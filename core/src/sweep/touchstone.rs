@@ -46,7 +46,7 @@ use crate::error::{self, Error, Result};
 use crate::math::complex::{self, cx, Cx};
 use crate::scalar::Real;
 
-use super::text::{before_comment, eq_ci, err_at, number, number_at, Tokens};
+use super::text::{before_comment, eq_ci, err_at, lines, number, number_at, Tokens};
 
 /// The network parameter stored in a file.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -344,7 +344,7 @@ impl<T: Real, const P: usize> Touchstone<T, P> {
     where
         F: FnMut(Record<'_, T, P>) -> Result<()>,
     {
-        for line in text.lines() {
+        for line in lines(text) {
             self.push_line(line, &mut sink)?;
         }
         self.finish()
@@ -674,6 +674,9 @@ impl<T: Real, const P: usize> Touchstone<T, P> {
                 ))
             }
         };
+        if ports == 0 {
+            return Err(err_at(ln, base, "a port count of at least one"));
+        }
         if ports > P {
             return Err(Error::Capacity {
                 what: "ports",
@@ -779,7 +782,7 @@ impl<T: Real, const P: usize> Touchstone<T, P> {
             // First half of a pair: version 1 line rules for ≥ 3 ports.
             let p = (self.idx - 1) / 2;
             if !v2 && ports >= 3 {
-                let starts_row = p > 0 && p % ports == 0;
+                let starts_row = p > 0 && p.checked_rem(ports) == Some(0);
                 if starts_row && !line_start {
                     return Err(err_at(ln, at, "a new line for the next matrix row"));
                 }
