@@ -518,11 +518,11 @@ mod tests {
         let a = 2.0 * len * 2e-6;
         let t_d = 2.0 * len / 2e8;
         let mut worst: f64 = 0.0;
-        for i in 0..N {
+        for (i, vi) in v.iter().enumerate().take(N - 50) {
             let t = i as f64 * dt - launch - t_d;
-            if t > 0.5e-9 && i as f64 * dt < (N as f64 - 50.0) * dt {
+            if t > 0.5e-9 {
                 let want = 1.0 + libm::erfc(a / (2.0 * t.sqrt()));
-                worst = worst.max((v[i] - want).abs());
+                worst = worst.max((vi - want).abs());
             }
         }
         assert!(worst < 2e-3, "worst deviation from erfc {worst}");
