@@ -3,8 +3,8 @@
 //! Elements are listed from the input (port 1) toward the load (port 2).
 //! Capacity is the const generic `N` (a `heapless::Vec`): pushing an
 //! (N+1)-th element is [`Error::Capacity`]. Memory: `N × size_of::<Element<T>>()`
-//! plus a length word; an element is 48 bytes in f64 and 32 bytes in f32 on a
-//! 64-bit host (a line holds a `&dyn LineModel` fat pointer).
+//! plus a length word; an element is at most 64 bytes in f64 and 32 bytes in
+//! f32 on a 64-bit host (a lumped R-L-C element holds three `Option<T>`).
 //!
 //! **Input impedance (fast path).** The cascade is walked from the load toward
 //! the input carrying the impedance as a ratio Z = V/I of two complex numbers
@@ -378,6 +378,12 @@ mod tests {
     use super::*;
     use crate::line::lossless::Lossless;
     use crate::network::load::Rlc;
+
+    #[test]
+    fn element_sizes_are_as_documented() {
+        assert!(core::mem::size_of::<Element<'_, f64>>() <= 64);
+        assert!(core::mem::size_of::<Element<'_, f32>>() <= 32);
+    }
 
     #[test]
     fn capacity_is_an_error() {
