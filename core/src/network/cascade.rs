@@ -363,7 +363,7 @@ fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>,
 #[inline(always)]
 fn normalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
     let m = inf_norm(n).max(inf_norm(d));
-    if !m.is_finite() {
+    if !(complex::is_finite(n) && complex::is_finite(d)) {
         return Err(Error::NonFinite("input_impedance"));
     }
     if m == T::zero() {
