@@ -657,6 +657,39 @@ fn nan_from_a_model_is_an_error() {
     assert_eq!(c.abcd_at(1e6), Err(Error::NonFinite("gamma_per_m")));
 }
 
+#[test]
+fn shorted_and_open_lossy_lines_follow_tanh_and_coth() {
+    // Pozar 2012 §2.7: a lossy line ended in a short shows Zc·tanh(γl), in an
+    // open Zc·coth(γl) (checked away from the poles with num-complex's tanh).
+    let line = ConstRlgc::<f64>::new(2.0, 300e-9, 5e-5, 90e-12);
+    for f in wide_band(7) {
+        let p = line.at(f).unwrap();
+        let zc = zf(p.zc_ohm);
+        for len in [0.05, 1.3, 40.0] {
+            let gl = p.gamma_per_m * len;
+            if gl.re > 15.0 {
+                continue; // tanh is 1 to rounding there; covered by the saturation test
+            }
+            let t = gl.tanh();
+            let c = one_line::<f64>(&line, len);
+            let zs = zf(c.input_impedance(f, &Load::Short).unwrap());
+            let zo = zf(c.input_impedance(f, &Load::Open).unwrap());
+            // Rounding of the phase βl (≈ ε·βl) sets the scale of the error.
+            let cond = 1.0 + gl.im.abs();
+            assert!(
+                cclose(zs, zc * t, 1e-12 * cond, 1e-12),
+                "f {f} l {len}: {zs} vs {}",
+                zc * t
+            );
+            assert!(
+                cclose(zo, zc / t, 1e-12 * cond, 1e-12),
+                "f {f} l {len}: {zo} vs {}",
+                zc / t
+            );
+        }
+    }
+}
+
 // ----------------------------------------------------- external vectors ---
 
 #[test]
