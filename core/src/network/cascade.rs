@@ -215,23 +215,28 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             .chunks(SWEEP_BLOCK)
             .zip(out.chunks_mut(SWEEP_BLOCK))
         {
-            self.walk_block(fs, load, os)?;
+            self.walk_block::<SWEEP_BLOCK>(fs, load, os)?;
         }
         Ok(())
     }
 
     fn zin_checked(&self, f: T, load: &Load<T>) -> Result<Impedance<T>> {
         let mut out = [Impedance::Open];
-        self.walk_block(&[f], load, &mut out)?;
+        self.walk_block::<1>(&[f], load, &mut out)?;
         let [z] = out;
         Ok(z)
     }
 
-    /// The load-to-input walk for up to [`SWEEP_BLOCK`] validated frequencies.
-    fn walk_block(&self, freqs: &[T], load: &Load<T>, out: &mut [Impedance<T>]) -> Result<()> {
+    /// The load-to-input walk for up to `B` validated frequencies (`B` = 1 for one point).
+    fn walk_block<const B: usize>(
+        &self,
+        freqs: &[T],
+        load: &Load<T>,
+        out: &mut [Impedance<T>],
+    ) -> Result<()> {
         let zero = Cx::new(T::zero(), T::zero());
         let one = Cx::new(T::one(), T::zero());
-        let mut state = [(zero, zero); SWEEP_BLOCK];
+        let mut state = [(zero, zero); B];
         for (st, f) in state.iter_mut().zip(freqs.iter()) {
             *st = match load.impedance_unchecked(*f) {
                 Impedance::Open => (one, zero),
@@ -249,8 +254,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                     // (independent work); Zc and e^{−2γl} are kept, a section
                     // without a finite non-zero Zc is applied at once by its ABCD map
                     // and marked with Zc = 0.
-                    let mut zcs = [zero; SWEEP_BLOCK];
-                    let mut es = [zero; SWEEP_BLOCK];
+                    let mut zcs = [zero; B];
+                    let mut es = [zero; B];
                     for (((zc_o, e_o), st), f) in zcs
                         .iter_mut()
                         .zip(es.iter_mut())
