@@ -93,7 +93,10 @@ fn run<T: Real>(c: &mut Criterion, name: &str) {
         Some(T::lit(LOAD.2)),
     ));
     let freqs: Vec<T> = (0..POINTS)
-        .map(|i| T::lit(F_LO_HZ + (F_HI_HZ - F_LO_HZ) * i as f64 / (POINTS - 1) as f64))
+        .map(|i| {
+            let (lo, hi) = (T::lit(F_LO_HZ), T::lit(F_HI_HZ));
+            lo + (hi - lo) * T::from_usize(i) / T::from_usize(POINTS - 1)
+        })
         .collect();
     let mut out = vec![Impedance::<T>::Open; POINTS];
     let mut group = c.benchmark_group("zin_sweep");
