@@ -221,6 +221,33 @@ pub struct Analysis<T, const N: usize> {
     pub clipping: Clipping,
 }
 
+impl<T: Real, const N: usize> Analysis<T, N> {
+    /// Empty storage for [`analyse_into`] (no events, zero figures).
+    pub fn empty() -> Self {
+        let zero_d = Distance {
+            distance_m: T::zero(),
+            lo_m: T::zero(),
+            hi_m: T::zero(),
+        };
+        Analysis {
+            events: Vec::new(),
+            noise: NoiseFloor {
+                sigma_v: T::zero(),
+                points: 0,
+            },
+            threshold_v: T::zero(),
+            filter_samples: 0,
+            dead_zone_s: T::zero(),
+            dead_zone: zero_d,
+            range: zero_d,
+            masked_by_dead_zone: false,
+            echoes_after_end: 0,
+            rejected_lobes: 0,
+            clipping: Clipping::default(),
+        }
+    }
+}
+
 /// Impedance from a cumulative reflection: Z = Z_s·(1+Γ)/(1−Γ), open and
 /// short explicit.
 pub fn impedance_from_gamma<T: Real>(z_source_ohm: T, gamma: T) -> Impedance<T> {
@@ -295,14 +322,14 @@ impl<T: Real> Haar<T> {
 /// Ring length for the filter history (power of two): with 4w + 1 ≤ RING the
 /// neighbours S(n ± 2w) come from one running filter and this ring, else three
 /// running filters are used.
-const RING: usize = 512;
+const RING: usize = 256;
 
 /// The filter output at n and at n ± 2w.
-struct Filters<T> {
+struct Filters<'r, T> {
     w: usize,
     len: usize,
     inv_w: T,
-    ring: [T; RING],
+    ring: &'r mut [T; RING],
     use_ring: bool,
     lead: Haar<T>,
     hl: Haar<T>,
@@ -310,13 +337,22 @@ struct Filters<T> {
     hr: Haar<T>,
 }
 
-impl<T: Real> Filters<T> {
-    fn new<S: Samples<T> + ?Sized>(s: &S, w: usize, len: usize, n_start: usize) -> Self {
+impl<'r, T: Real> Filters<'r, T> {
+    /// The ring is the caller's (a local array in the analysis), so it is not
+    /// copied through a return value: the firmware stack budget is 4 KiB.
+    fn new<S: Samples<T> + ?Sized>(
+        s: &S,
+        w: usize,
+        len: usize,
+        n_start: usize,
+        ring: &'r mut [T; RING],
+    ) -> Self {
+        ring.fill(T::nan());
         let mut f = Filters {
             w,
             len,
             inv_w: T::one() / T::from_usize(w),
-            ring: [T::nan(); RING],
+            ring,
             use_ring: 4 * w < RING,
             lead: Haar::new(),
             hl: Haar::new(),
@@ -392,21 +428,21 @@ struct Found<T> {
     clipped: bool,
 }
 
-struct Run<'t, 'a, T, S: ?Sized, const N: usize> {
+struct Run<'t, 'a, 'o, T, S: ?Sized, const N: usize> {
     trace: &'t Trace<'a, T, S>,
     set: DetectSettings<T>,
     sigma: T,
     w: usize,
     g: usize,
     level_thr: T,
-    out: Vec<Event<T>, N>,
+    out: &'o mut Vec<Event<T>, N>,
     ended: bool,
     echoes: usize,
     rejected: usize,
     t_hw: T,
 }
 
-impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, T, S, N> {
+impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, '_, T, S, N> {
     fn v(&self, i: usize) -> T {
         self.trace.samples.volts(i).unwrap_or(T::zero())
     }
@@ -641,6 +677,21 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     trace: &Trace<'_, T, S>,
     settings: &DetectSettings<T>,
 ) -> Result<Analysis<T, N>> {
+    let mut out = Analysis::empty();
+    analyse_into(trace, settings, &mut out)?;
+    Ok(out)
+}
+
+/// As [`analyse`], but fills caller-provided storage in place (no copy of the
+/// event list through return values: the firmware path uses this to stay
+/// within its stack budget). `out` is overwritten; on error its content is
+/// unspecified (its events may be partly written).
+pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
+    trace: &Trace<'_, T, S>,
+    settings: &DetectSettings<T>,
+    out: &mut Analysis<T, N>,
+) -> Result<()> {
+    out.events.clear();
     let set = *settings;
     crate::error::positive(set.k_sigma, "k_sigma")?;
     crate::error::non_negative(set.min_rho, "min_rho")?;
@@ -694,20 +745,21 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     let range =
         distance_from_round_trip((T::from_usize(n_end - 1) - t0) * dt, t_hw, &trace.velocity)?;
 
-    let mut run: Run<'_, '_, T, S, N> = Run {
+    let mut run: Run<'_, '_, '_, T, S, N> = Run {
         trace,
         set,
         sigma,
         w,
         g,
         level_thr,
-        out: Vec::new(),
+        out: &mut out.events,
         ended: false,
         echoes: 0,
         rejected: 0,
         t_hw,
     };
-    let mut filters = Filters::new(trace.samples, w, len, n_start);
+    let mut ring = [T::nan(); RING];
+    let mut filters = Filters::new(trace.samples, w, len, n_start, &mut ring);
     let mut lobe: Option<Lobe<T>> = None;
     let mut pending: Option<Lobe<T>> = None;
     let mut masked = false;
@@ -827,25 +879,33 @@ pub fn analyse<T: Real, S: Samples<T> + ?Sized, const N: usize>(
         // An end of trace is not an end of the line.
         run.ended = false;
     }
-    Ok(Analysis {
-        events: run.out,
-        noise,
-        threshold_v: thr,
-        filter_samples: w,
-        dead_zone_s,
-        dead_zone,
-        range,
-        masked_by_dead_zone: masked,
-        echoes_after_end: run.echoes,
-        rejected_lobes: run.rejected,
-        clipping: trace.clipping,
-    })
+    let (echoes, rejected) = (run.echoes, run.rejected);
+    out.noise = noise;
+    out.threshold_v = thr;
+    out.filter_samples = w;
+    out.dead_zone_s = dead_zone_s;
+    out.dead_zone = dead_zone;
+    out.range = range;
+    out.masked_by_dead_zone = masked;
+    out.echoes_after_end = echoes;
+    out.rejected_lobes = rejected;
+    out.clipping = trace.clipping;
+    Ok(())
 }
 
 impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
     /// Analyses this trace into at most `N` events; see [`analyse`].
     pub fn analyse<const N: usize>(&self, settings: &DetectSettings<T>) -> Result<Analysis<T, N>> {
         analyse(self, settings)
+    }
+
+    /// Analyses this trace into caller storage; see [`analyse_into`].
+    pub fn analyse_into<const N: usize>(
+        &self,
+        settings: &DetectSettings<T>,
+        out: &mut Analysis<T, N>,
+    ) -> Result<()> {
+        analyse_into(self, settings, out)
     }
 }
 
@@ -886,10 +946,11 @@ mod tests {
         for (i, v) in x.iter_mut().enumerate() {
             *v = ((i * 7919) % 101) as f64 * 0.01 + if i > 1500 { 1.0 } else { 0.0 };
         }
-        for w in [3usize, 40, 127] {
+        for w in [3usize, 40, RING / 4 - 1] {
             let n_start = 50;
-            let mut a = Filters::new(&x[..], w, x.len(), n_start);
-            let mut b = Filters::new(&x[..], w, x.len(), n_start);
+            let (mut ra, mut rb) = ([0.0; RING], [0.0; RING]);
+            let mut a = Filters::new(&x[..], w, x.len(), n_start, &mut ra);
+            let mut b = Filters::new(&x[..], w, x.len(), n_start, &mut rb);
             assert!(a.use_ring);
             b.use_ring = false;
             for n in n_start..x.len() - w {
@@ -905,7 +966,8 @@ mod tests {
                 );
             }
         }
-        assert!(!Filters::new(&x[..], 128, x.len(), 0).use_ring);
+        let mut r = [0.0; RING];
+        assert!(!Filters::new(&x[..], RING / 4, x.len(), 0, &mut r).use_ring);
     }
 
     #[test]

@@ -67,7 +67,7 @@ pub mod trace;
 
 pub use compare::{compare, Change, ChangeKind, CompareSettings};
 pub use detect::{
-    analyse, impedance_from_gamma, Analysis, DetectSettings, Event, EventKind, Lumped,
+    analyse, analyse_into, impedance_from_gamma, Analysis, DetectSettings, Event, EventKind, Lumped,
 };
 pub use noise::{noise_floor, NoiseFloor};
 pub use peel::{peel_impulse, Profile, ProfileEnd};

@@ -279,24 +279,32 @@ pub struct Trace<'a, T, S: ?Sized> {
 }
 
 /// Median of a small set in place (`len ≥ 1`), without panicking.
+///
+/// Insertion sort (O(n²); the callers pass at most 256 values), written with
+/// `get_mut` on two-element windows so that no bounds check can panic: the
+/// firmware image links it under the no-panic proof, which `core`'s
+/// `select_nth_unstable_by` does not pass. NaN sorts as equal (callers reject
+/// non-finite samples first).
 pub(crate) fn median_in_place<T: Real>(x: &mut [T]) -> Option<T> {
     let n = x.len();
     if n == 0 {
         return None;
     }
-    let (_, m, _) = x.select_nth_unstable_by(n / 2, |a, b| {
-        a.partial_cmp(b).unwrap_or(core::cmp::Ordering::Equal)
-    });
-    let hi = *m;
+    for i in 1..n {
+        let mut j = i;
+        while j > 0 {
+            match x.get_mut(j - 1..=j) {
+                Some([a, b]) if *a > *b => core::mem::swap(a, b),
+                _ => break,
+            }
+            j -= 1;
+        }
+    }
+    let hi = *x.get(n / 2)?;
     if n % 2 == 1 {
         return Some(hi);
     }
-    // Even count: mean of the two middle values (the lower one is the
-    // largest of the left part).
-    let lo = x
-        .iter()
-        .take(n / 2)
-        .fold(T::neg_infinity(), |a, &b| a.max(b));
+    let lo = *x.get(n / 2 - 1)?;
     Some((lo + hi) * T::half())
 }
 
