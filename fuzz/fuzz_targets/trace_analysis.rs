@@ -18,7 +18,7 @@ fn check<const N: usize>(a: &echoline::tdr::Analysis<f32, N>) {
             "{e:?}"
         );
         assert!(d.lo_m <= d.distance_m && d.distance_m <= d.hi_m, "{d:?}");
-        assert!(!e.rho.is_nan());
+        assert!(!e.rho.is_nan(), "NaN rho: {e:?}");
     }
 }
 
