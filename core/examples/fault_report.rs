@@ -32,7 +32,8 @@
 //! differences); `--json` prints
 //! `{"events":[{"t_s":…,"distance_m":…,"distance_lo_m":…,"distance_hi_m":…,"kind":"…","rho":…,…}]}`
 //! with further fields after these (`z_after_ohm`, `lumped_f`/`lumped_h`,
-//! `snr`; `null` where not finite).
+//! `snr`; `null` where not finite). With `--json` the baseline differences
+//! are not printed (the output is only that line).
 
 use echoline::tdr::{
     compare, Analysis, ChangeKind, CompareSettings, DetectSettings, Event, EventKind, Lumped,
