@@ -632,3 +632,73 @@ fn slow_far_end_is_one_open_end_f64() {
 fn slow_far_end_is_one_open_end_f32() {
     slow_far_end::<f32>();
 }
+
+/// A lossy RLGC cable (per metre: L 250 nH, C 100 pF at DC with a causal
+/// wideband-Debye dielectric εr 2.3, tanδ 5e-4; conductors with 0.02 Ω/m DC
+/// and a 2e-5 Ω/(m·√Hz) skin term): 15 m of 50 Ω, 8 m of 40 Ω (L 200 nH,
+/// C 125 pF), 8 m of 50 Ω, short. ρ = ∓1/9 at the steps, read within 0.02
+/// (loss over the path lowers them a little).
+fn lossy_rlgc<T: Real>() {
+    use echoline::line::conductor::Conductor;
+    use echoline::line::rlgc::Rlgc;
+    let diel = || Dielectric::wideband_debye(T::lit(2.3), T::lit(5e-4), T::lit(1e9)).unwrap();
+    let cond = || Conductor::generic(T::lit(0.02), T::lit(2e-5)).unwrap();
+    let mk = |l: f64, c: f64| {
+        Rlgc::builder_from_c(T::lit(l), T::lit(c), diel())
+            .conductor(cond())
+            .build()
+            .unwrap()
+    };
+    let (l50, l40) = (mk(250e-9, 100e-12), mk(200e-9, 125e-12));
+    let mut c: Cascade<T, 4> = Cascade::new();
+    c.push_line(&l50, T::lit(15.0)).unwrap();
+    c.push_line(&l40, T::lit(8.0)).unwrap();
+    c.push_line(&l50, T::lit(8.0)).unwrap();
+    let v =
+        VelocityRange::from_line(&l50, VelocityKind::PhaseAt(T::lit(1e9)), T::lit(0.01)).unwrap();
+    let vn = f(v.nominal_m_per_s);
+    let dt = 100e-12;
+    for (tr, noise, seed) in [
+        (400e-12, 0.0, 0),
+        (400e-12, 0.003, 71),
+        (800e-12, 0.003, 72),
+    ] {
+        let x = sim(&c, Load::Short, dt, tr, 4096, noise, seed);
+        let a = analyse(&x, dt, v, &DetectSettings::default());
+        let label = format!("rlgc tr {tr} noise {noise}");
+        let found: Vec<&Event<T>> = a.events.iter().collect();
+        let kinds: Vec<EventKind> = found.iter().map(|e| e.kind).collect();
+        assert_eq!(
+            kinds,
+            [
+                EventKind::ImpedanceDown,
+                EventKind::ImpedanceUp,
+                EventKind::Short
+            ],
+            "{label}"
+        );
+        for (e, d) in found.iter().zip([15.0, 23.0, 31.0]) {
+            check_distance(*e, d, vn, dt, &label);
+        }
+        assert!(
+            (f(found[0].rho) + 1.0 / 9.0).abs() < 0.02,
+            "{label}: {}",
+            f(found[0].rho)
+        );
+        assert!(
+            (f(found[1].rho) - 1.0 / 9.0).abs() < 0.02,
+            "{label}: {}",
+            f(found[1].rho)
+        );
+    }
+}
+
+#[test]
+fn lossy_rlgc_steps_and_short_f64() {
+    lossy_rlgc::<f64>();
+}
+
+#[test]
+fn lossy_rlgc_steps_and_short_f32() {
+    lossy_rlgc::<f32>();
+}
