@@ -702,3 +702,26 @@ fn lossy_rlgc_steps_and_short_f64() {
 fn lossy_rlgc_steps_and_short_f32() {
     lossy_rlgc::<f32>();
 }
+
+/// The stated limit: 200 m of the lossy coax, open, read with the default
+/// filter (tied to the 1 ns instrument edge). The far end's slow edge gives
+/// only a small step over the short filter (|ρ| below `resistive_min_rho`),
+/// so it is reported as an impedance-up step whose settled level shows the
+/// open (Γ_settled ≈ +1); its distance is still within tolerance. With
+/// `filter_samples` near the edge's length it is an open end (see
+/// `long_lossy_cable_needs_the_skin_correction_*`).
+#[test]
+fn very_long_lossy_cable_with_the_default_filter_is_a_stated_limit() {
+    let coax = pe_coax::<f64>(0.9e-3);
+    let v = VelocityRange::from_line(&coax, VelocityKind::PhaseAt(1e9), 0.005).unwrap();
+    let mut c: Cascade<f64, 2> = Cascade::new();
+    c.push_line(&coax, 200.0).unwrap();
+    let dt = 250e-12;
+    let x = sim(&c, Load::Open, dt, 1e-9, 16384, 0.001, 81);
+    let a = analyse(&x, dt, v, &DetectSettings::default());
+    let kinds: Vec<EventKind> = a.events.iter().map(|e| e.kind).collect();
+    assert_eq!(kinds, [EventKind::ImpedanceUp, EventKind::EndOfTrace]);
+    let e = &a.events[0];
+    assert!(e.rho < 0.1 && e.gamma_settled > 0.9, "{e:?}");
+    check_distance(e, 200.0, v.nominal_m_per_s, dt, "200 m, default filter");
+}

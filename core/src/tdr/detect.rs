@@ -57,7 +57,13 @@
 //!    **short** when its *settled* level [`Event::gamma_settled`] (just
 //!    before the next event or the end of the trace) passes ±end_gamma: a far
 //!    end on a lossy cable rises slowly (skin effect), so its level right after
-//!    the edge reads low.
+//!    the edge reads low. Limit: on a very long lossy cable (e.g. 200 m of
+//!    thin PE coax) the step over the default filter stays below
+//!    resistive_min_rho, and the end is reported as impedance up with
+//!    `gamma_settled` ≈ ±1; set [`DetectSettings::filter_samples`] near the
+//!    edge's length to classify it (tests/tests/tdr_roundtrip.rs). Its 50 %
+//!    reading is then late by the skin-effect delay: correct it with
+//!    [`crate::timing::edge::correct_skin_delay`].
 //! 4. If no open or short was found, the last large event
 //!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`], default 0.1; smaller later
 //!    ones are taken as multiple reflections), when it is a step that leaves
