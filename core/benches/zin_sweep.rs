@@ -7,7 +7,7 @@
 
 use criterion::{black_box, criterion_group, criterion_main, Criterion, Throughput};
 use echoline::line::{LineModel, LinePoint, Warnings};
-use echoline::math::complex::{self, Cx};
+use echoline::math::complex::Cx;
 use echoline::network::{Cascade, Load, Rlc};
 use echoline::{error, Impedance, Real, Result};
 
@@ -20,19 +20,33 @@ struct ConstRlgc<T> {
 }
 
 impl<T: Real> LineModel<T> for ConstRlgc<T> {
-    /// γ = √(Z·Y) (principal root, Re γ ≥ 0), Zc = Z/γ: one complex square root
-    /// and one division. For the passive values used here (both Z and Y in the
-    /// first quadrant) this is the same branch as √Z·√Y and √Z/√Y.
+    /// γ = √(Z·Y) (principal root, Re γ ≥ 0) and Zc = Z/γ = Z·γ*/|Z·Y|, so the
+    /// division by |ZY| runs beside the second square root. For the passive
+    /// values here (Z and Y in the first quadrant, |ZY| far from over/underflow)
+    /// this is the branch of √Z·√Y and √Z/√Y.
+    #[inline]
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let w = T::two_pi() * f;
         let z = Cx::new(self.r, w * self.l);
         let y = Cx::new(self.g, w * self.c);
-        let gamma = complex::sqrt(z * y);
-        let zc = if gamma.re == T::zero() && gamma.im == T::zero() {
-            Impedance::ohms((self.l / self.c).sqrt())
+        let x = z * y;
+        let m = (x.re * x.re + x.im * x.im).sqrt(); // |ZY| = |γ|²
+        let zero = T::zero();
+        let (gamma, zc) = if m == zero {
+            (
+                Cx::new(zero, zero),
+                Impedance::ohms((self.l / self.c).sqrt()),
+            )
         } else {
-            Impedance::Finite(complex::div(z, gamma))
+            let inv_m = T::one() / m;
+            let t = ((x.re.abs() + m) * T::half()).sqrt();
+            let gamma = if x.re >= zero {
+                Cx::new(t, x.im / (t + t))
+            } else {
+                Cx::new(x.im.abs() / (t + t), if x.im < zero { -t } else { t })
+            };
+            (gamma, Impedance::Finite(z * gamma.conj() * inv_m))
         };
         Ok(LinePoint {
             freq_hz: f,
@@ -79,7 +93,10 @@ fn run<T: Real>(c: &mut Criterion, name: &str) {
         Some(T::lit(LOAD.2)),
     ));
     let freqs: Vec<T> = (0..POINTS)
-        .map(|i| T::lit(F_LO_HZ + (F_HI_HZ - F_LO_HZ) * i as f64 / (POINTS - 1) as f64))
+        .map(|i| {
+            let (lo, hi) = (T::lit(F_LO_HZ), T::lit(F_HI_HZ));
+            lo + (hi - lo) * T::from_usize(i) / T::from_usize(POINTS - 1)
+        })
         .collect();
     let mut out = vec![Impedance::<T>::Open; POINTS];
     let mut group = c.benchmark_group("zin_sweep");

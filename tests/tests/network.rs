@@ -592,6 +592,104 @@ fn f32_and_f64_agree_across_the_band() {
     }
 }
 
+#[test]
+fn dc_through_lines_is_ohms_law() {
+    // At DC a line without leakage is its series resistance R·l (Ohm's law;
+    // Zc = ∞ there, so the ABCD map is used); a lossless line is transparent.
+    fn check<T: Real>(tol: f64) {
+        let lossy = ConstRlgc::<T>::new(0.25, 250e-9, 0.0, 100e-12);
+        let ideal = Lossless::<T>::new(T::lit(75.0), T::lit(0.66)).unwrap();
+        let mut c: Cascade<'_, T, 3> = Cascade::new();
+        c.push_line(&lossy, T::lit(8.0)).unwrap();
+        c.push_line(&ideal, T::lit(3.0)).unwrap();
+        c.push(Element::Series(Load::Series(Rlc::new(
+            Some(T::lit(1.0)),
+            Some(T::lit(1e-6)),
+            None,
+        ))))
+        .unwrap();
+        let zin = zf(c
+            .input_impedance(T::zero(), &Load::Resistor(T::lit(47.0)))
+            .unwrap());
+        assert!(
+            close(zin.re.to_f64_lossless(), 2.0 + 1.0 + 47.0, tol, 0.0),
+            "{zin:?}"
+        );
+        assert!(zin.im.to_f64_lossless().abs() < tol);
+        assert_eq!(
+            c.input_impedance(T::zero(), &Load::Open).unwrap(),
+            Impedance::Open
+        );
+        let m = c.abcd_at(T::zero()).unwrap();
+        let za = zf(m.input_impedance(Impedance::ohms(T::lit(47.0))).unwrap());
+        assert!(close(za.re.to_f64_lossless(), 50.0, tol, 0.0), "{za:?}");
+        // A lone series element has S21 = 2Zr/(Z + 2Zr): here 2·50/(3 + 100).
+        let s = m.s_params(T::lit(50.0)).unwrap();
+        assert!(
+            close(s.s21.re.to_f64_lossless(), 100.0 / 103.0, tol, 0.0),
+            "{:?}",
+            s.s21
+        );
+    }
+    check::<f64>(1e-12);
+    check::<f32>(1e-5);
+}
+
+/// A broken model that returns NaN: the cascade must say so, not return a value.
+struct NanModel;
+
+impl LineModel<f64> for NanModel {
+    fn at(&self, freq_hz: f64) -> Result<LinePoint<f64>> {
+        let mut p = LinePoint::from_zy(freq_hz, Cx::new(1.0, 1.0), Cx::new(1.0, 1.0), None)?;
+        p.gamma_per_m = Cx::new(f64::NAN, 1.0);
+        Ok(p)
+    }
+}
+
+#[test]
+fn nan_from_a_model_is_an_error() {
+    let m = NanModel;
+    let c = one_line::<f64>(&m, 1.0);
+    assert_eq!(
+        c.input_impedance(1e6, &Load::Resistor(50.0)),
+        Err(Error::NonFinite("input_impedance"))
+    );
+    assert_eq!(c.abcd_at(1e6), Err(Error::NonFinite("gamma_per_m")));
+}
+
+#[test]
+fn shorted_and_open_lossy_lines_follow_tanh_and_coth() {
+    // Pozar 2012 §2.7: a lossy line ended in a short shows Zc·tanh(γl), in an
+    // open Zc·coth(γl) (checked away from the poles with num-complex's tanh).
+    let line = ConstRlgc::<f64>::new(2.0, 300e-9, 5e-5, 90e-12);
+    for f in wide_band(7) {
+        let p = line.at(f).unwrap();
+        let zc = zf(p.zc_ohm);
+        for len in [0.05, 1.3, 40.0] {
+            let gl = p.gamma_per_m * len;
+            if gl.re > 15.0 {
+                continue; // tanh is 1 to rounding there; covered by the saturation test
+            }
+            let t = gl.tanh();
+            let c = one_line::<f64>(&line, len);
+            let zs = zf(c.input_impedance(f, &Load::Short).unwrap());
+            let zo = zf(c.input_impedance(f, &Load::Open).unwrap());
+            // Rounding of the phase βl (≈ ε·βl) sets the scale of the error.
+            let cond = 1.0 + gl.im.abs();
+            assert!(
+                cclose(zs, zc * t, 1e-12 * cond, 1e-12),
+                "f {f} l {len}: {zs} vs {}",
+                zc * t
+            );
+            assert!(
+                cclose(zo, zc / t, 1e-12 * cond, 1e-12),
+                "f {f} l {len}: {zo} vs {}",
+                zc / t
+            );
+        }
+    }
+}
+
 // ----------------------------------------------------- external vectors ---
 
 #[test]

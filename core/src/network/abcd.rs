@@ -72,10 +72,22 @@ pub struct SParams<T> {
     pub s22: Cx<T>,
 }
 
-/// q·e^s without forming e^s alone (which may overflow while the product does not).
+/// q·e^s: the plain product when e^s and the product are finite and normal,
+/// else exp(s + ln|q|)·q/|q| (so that e^s alone may overflow or underflow while
+/// the product does not).
 pub(crate) fn mul_exp<T: Real>(q: Cx<T>, s: T) -> Cx<T> {
+    if s == T::zero() {
+        return q;
+    }
+    let es = s.exp();
+    if es.is_finite() && es >= T::min_positive_value() {
+        let r = q * es;
+        if complex::is_finite(r) {
+            return r;
+        }
+    }
     let m = complex::abs(q);
-    if m == T::zero() || s == T::zero() {
+    if m == T::zero() || !m.is_finite() {
         return q;
     }
     let k = (s + m.ln()).exp() / m;
@@ -244,12 +256,15 @@ impl<T: Real> Abcd<T> {
         if k == T::zero() {
             return self;
         }
-        let f = T::two().powi(-(k.to_i64_sat().clamp(-2000, 2000) as i32));
+        // 2^−k in two exact factors, so that neither overflows for a
+        // subnormal or huge m (k may reach ±1074 in f64).
+        let ki = k.to_i64_sat().clamp(-2200, 2200) as i32;
+        let (f1, f2) = (T::two().powi(-(ki / 2)), T::two().powi(-(ki - ki / 2)));
         Abcd {
-            a: self.a * f,
-            b: self.b * f,
-            c: self.c * f,
-            d: self.d * f,
+            a: self.a * f1 * f2,
+            b: self.b * f1 * f2,
+            c: self.c * f1 * f2,
+            d: self.d * f1 * f2,
             scale_np: self.scale_np + k * T::LN_2(),
             det: self.det,
         }
@@ -318,12 +333,19 @@ impl<T: Real> Abcd<T> {
             complex::div(Cx::new(T::two(), T::zero()), delta),
             -self.scale_np,
         );
-        Ok(SParams {
+        let s = SParams {
             s11: complex::div(self.a + bz - cz - self.d, delta),
             s12: self.det * s21,
             s21,
             s22: complex::div(bz - self.a - cz + self.d, delta),
-        })
+        };
+        if [s.s11, s.s12, s.s21, s.s22]
+            .iter()
+            .any(|x| x.re.is_nan() || x.im.is_nan())
+        {
+            return Err(Error::Undefined("s_params"));
+        }
+        Ok(s)
     }
 
     /// The two-port from S-parameters for the real reference `z_ref_ohm`
@@ -446,6 +468,24 @@ mod tests {
             assert!((mul_exp(ch, s) - want_ch).norm() < 1e-15);
             assert!((mul_exp(shc, s) - want_shc).norm() < 1e-15);
         }
+    }
+
+    #[test]
+    fn renormalisation_survives_extreme_entries() {
+        let tiny =
+            Abcd::from_matrix(Cx::new(1e-310f64, 0.0), c0(), c0(), Cx::new(3e-310, 0.0)).unwrap();
+        assert!(
+            inf_norm(tiny.d) >= 1.0 && inf_norm(tiny.d) < 2.0,
+            "{tiny:?}"
+        );
+        let huge =
+            Abcd::from_matrix(Cx::new(1e38f32, 0.0), c0(), c0(), Cx::new(3e38, 0.0)).unwrap();
+        assert!(
+            inf_norm(huge.d) >= 1.0 && inf_norm(huge.d) < 2.0,
+            "{huge:?}"
+        );
+        let back = tiny.matrix().unwrap();
+        assert!((back[1][1].re - 3e-310).abs() < 1e-320);
     }
 
     #[test]

@@ -3,8 +3,8 @@
 //! Elements are listed from the input (port 1) toward the load (port 2).
 //! Capacity is the const generic `N` (a `heapless::Vec`): pushing an
 //! (N+1)-th element is [`Error::Capacity`]. Memory: `N × size_of::<Element<T>>()`
-//! plus a length word; an element is 48 bytes in f64 and 32 bytes in f32 on a
-//! 64-bit host (a line holds a `&dyn LineModel` fat pointer).
+//! plus a length word; an element is at most 64 bytes in f64 and 32 bytes in
+//! f32 on a 64-bit host (a lumped R-L-C element holds three `Option<T>`).
 //!
 //! **Input impedance (fast path).** The cascade is walked from the load toward
 //! the input carrying the impedance as a ratio Z = V/I of two complex numbers
@@ -215,23 +215,28 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             .chunks(SWEEP_BLOCK)
             .zip(out.chunks_mut(SWEEP_BLOCK))
         {
-            self.walk_block(fs, load, os)?;
+            self.walk_block::<SWEEP_BLOCK>(fs, load, os)?;
         }
         Ok(())
     }
 
     fn zin_checked(&self, f: T, load: &Load<T>) -> Result<Impedance<T>> {
         let mut out = [Impedance::Open];
-        self.walk_block(&[f], load, &mut out)?;
+        self.walk_block::<1>(&[f], load, &mut out)?;
         let [z] = out;
         Ok(z)
     }
 
-    /// The load-to-input walk for up to [`SWEEP_BLOCK`] validated frequencies.
-    fn walk_block(&self, freqs: &[T], load: &Load<T>, out: &mut [Impedance<T>]) -> Result<()> {
+    /// The load-to-input walk for up to `B` validated frequencies (`B` = 1 for one point).
+    fn walk_block<const B: usize>(
+        &self,
+        freqs: &[T],
+        load: &Load<T>,
+        out: &mut [Impedance<T>],
+    ) -> Result<()> {
         let zero = Cx::new(T::zero(), T::zero());
         let one = Cx::new(T::one(), T::zero());
-        let mut state = [(zero, zero); SWEEP_BLOCK];
+        let mut state = [(zero, zero); B];
         for (st, f) in state.iter_mut().zip(freqs.iter()) {
             *st = match load.impedance_unchecked(*f) {
                 Impedance::Open => (one, zero),
@@ -249,8 +254,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                     // (independent work); Zc and e^{−2γl} are kept, a section
                     // without a finite non-zero Zc is applied at once by its ABCD map
                     // and marked with Zc = 0.
-                    let mut zcs = [zero; SWEEP_BLOCK];
-                    let mut es = [zero; SWEEP_BLOCK];
+                    let mut zcs = [zero; B];
+                    let mut es = [zero; B];
                     for (((zc_o, e_o), st), f) in zcs
                         .iter_mut()
                         .zip(es.iter_mut())
@@ -363,7 +368,7 @@ fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>,
 #[inline(always)]
 fn normalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
     let m = inf_norm(n).max(inf_norm(d));
-    if !m.is_finite() {
+    if !(complex::is_finite(n) && complex::is_finite(d)) {
         return Err(Error::NonFinite("input_impedance"));
     }
     if m == T::zero() {
@@ -378,6 +383,12 @@ mod tests {
     use super::*;
     use crate::line::lossless::Lossless;
     use crate::network::load::Rlc;
+
+    #[test]
+    fn element_sizes_are_as_documented() {
+        assert!(core::mem::size_of::<Element<'_, f64>>() <= 64);
+        assert!(core::mem::size_of::<Element<'_, f32>>() <= 32);
+    }
 
     #[test]
     fn capacity_is_an_error() {

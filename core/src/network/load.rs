@@ -15,7 +15,7 @@
 //!
 //! Valid ranges: `r_ohm`, `l_h`, `c_f` finite and ≥ 0; `freq_hz` finite and ≥ 0;
 //! a fixed impedance `z_ohm` finite (any sign: active loads are accepted, but the
-//! |Γ| ≤ 1 bound of [`crate::network::reflection`] then no longer holds).
+//! |Γ| ≤ 1 bound of [`mod@crate::network::reflection`] then no longer holds).
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};

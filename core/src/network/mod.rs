@@ -2,7 +2,7 @@
 //!
 //! * [`load`]: open, short, resistor, fixed impedance, series and parallel
 //!   R-L-C at any f ≥ 0 (DC limits explicit, never NaN).
-//! * [`reflection`]: Γ = (Z − Zr)/(Z + Zr) (voltage / pseudo-wave convention),
+//! * [`mod@reflection`]: Γ = (Z − Zr)/(Z + Zr) (voltage / pseudo-wave convention),
 //!   VSWR, return loss, mismatch loss, transmitted power, Smith-chart coordinates.
 //! * [`abcd`]: chain matrices of line sections (pole-free, DC-safe form),
 //!   series and shunt elements and ideal transformers, kept as a matrix times a

@@ -1,5 +1,5 @@
-//! Reflection traces: analysis of a measured step trace (simulation from a
-//! line cascade comes later).
+//! Reflection traces: simulation of the trace an instrument records on a
+//! cable ([`sim`]) and analysis of a measured step trace.
 //!
 //! Data flow (all in fixed memory, nothing copied):
 //!
@@ -21,6 +21,8 @@
 //!   [`crate::timing::timing_half_width_s`].
 //! * [`peel`] — layer peeling (Bruckstein & Kailath, SIAM Review 29(3), 1987).
 //! * [`mod@compare`] — new / gone / moved / ρ-changed events against a baseline.
+//! * [`sim`] — the sampled port voltage of a source driving a cascade ended
+//!   by its load (frequency-domain evaluation, inverse FFT, seeded noise).
 //!
 //! **Memory per sample:** detection needs nothing per sample beyond the
 //! borrowed trace (O(1): three running filters, two lobes, a 256-point noise
@@ -65,7 +67,7 @@ pub mod trace;
 
 pub use compare::{compare, Change, ChangeKind, CompareSettings};
 pub use detect::{
-    analyse, impedance_from_gamma, Analysis, DetectSettings, Event, EventKind, Lumped,
+    analyse, analyse_into, impedance_from_gamma, Analysis, DetectSettings, Event, EventKind, Lumped,
 };
 pub use noise::{noise_floor, NoiseFloor};
 pub use peel::{peel_impulse, Profile, ProfileEnd};
