@@ -422,7 +422,7 @@ pub fn distance_grid<T: Real>(
 }
 
 /// A velocity factor (fraction of c0) as an exact [`VelocityRange`] of kind
-/// [`VelocityKind::Factor`] (no tolerance).
+/// [`crate::timing::VelocityKind::Factor`] (no tolerance).
 ///
 /// Errors: as [`VelocityRange::from_factor`].
 pub fn velocity_from_factor<T: Real>(velocity_factor: T) -> Result<VelocityRange<T>> {
