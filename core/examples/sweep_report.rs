@@ -20,6 +20,7 @@ use echoline::math::complex::Cx;
 use echoline::math::fft::{fill_twiddles, Fft};
 use echoline::math::window::Window;
 use echoline::sweep::dtf::{band_pass_fft, Config};
+use echoline::sweep::grid::DistanceGrid;
 use echoline::sweep::peaks::{peaks_complex, Peaks};
 use echoline::sweep::read_reflection;
 use echoline::timing::VelocityRange;
@@ -91,20 +92,15 @@ fn parse_args() -> Result<Args, String> {
     Ok(a)
 }
 
-fn run() -> Result<(), String> {
-    let args = parse_args()?;
-    let (name, text) = match &args.file {
-        Some(p) => (
-            p.clone(),
-            std::fs::read_to_string(p).map_err(|e| format!("{p}: {e}"))?,
-        ),
-        None => ("demo_feeder.s1p".to_string(), DEMO.to_string()),
-    };
+type Report = (usize, f64, f64, DistanceGrid<f64>, Peaks<f64, 64>);
+
+/// Reads and transforms one sweep: (points, first and last frequency, grid, peaks).
+fn analyse(name: &str, text: &str, args: &Args) -> Result<Report, String> {
     let lines = text.lines().count().min(MAX_POINTS);
     let mut f = vec![0.0f64; lines.max(1)];
     let mut g = vec![Cx::new(0.0, 0.0); lines.max(1)];
     let n =
-        read_reflection(&text, &name, 50.0, &mut f, &mut g).map_err(|e| format!("{name}: {e}"))?;
+        read_reflection(text, name, 50.0, &mut f, &mut g).map_err(|e| format!("{name}: {e}"))?;
     f.truncate(n);
     g.truncate(n);
     let velocity = VelocityRange::from_factor(args.vf, 0.01).map_err(|e| format!("--vf: {e}"))?;
@@ -120,6 +116,19 @@ fn run() -> Result<(), String> {
     let grid = band_pass_fft(&f, &g, &cfg, &plan, &mut out).map_err(|e| format!("{name}: {e}"))?;
     let mut peaks: Peaks<f64, 64> = Peaks::new();
     peaks_complex(&out, &grid, args.threshold, &mut peaks).map_err(|e| e.to_string())?;
+    Ok((n, f[0], f[n - 1], grid, peaks))
+}
+
+fn run() -> Result<(), String> {
+    let args = parse_args()?;
+    let (name, text) = match &args.file {
+        Some(p) => (
+            p.clone(),
+            std::fs::read_to_string(p).map_err(|e| format!("{p}: {e}"))?,
+        ),
+        None => ("demo_feeder.s1p".to_string(), DEMO.to_string()),
+    };
+    let (n, f_first, f_last, grid, peaks) = analyse(&name, &text, &args)?;
     if args.json {
         let items: Vec<String> = peaks
             .iter()
@@ -140,8 +149,8 @@ fn run() -> Result<(), String> {
     }
     println!(
         "{name}: {n} points, {:.3} MHz to {:.3} MHz",
-        f[0] / 1e6,
-        f[n - 1] / 1e6
+        f_first / 1e6,
+        f_last / 1e6
     );
     println!(
         "window {:?}, VF {:.3} (±0.01), alias-free range {:.2} m, resolution {:.3} m, bins {:.4} m",
@@ -170,5 +179,42 @@ fn main() -> ExitCode {
             eprintln!("error: {e}");
             ExitCode::from(2)
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn defaults() -> Args {
+        Args {
+            file: None,
+            json: false,
+            vf: 0.88,
+            window: Window::Hann,
+            threshold: 0.02,
+        }
+    }
+
+    /// The demo's invented ground truth (examples/data/make_demo_sweep.py):
+    /// wet connector at 12.4 m (5 cm, both edges in one peak), splice edges at
+    /// 33.0 m and 33.4 m, antenna at 35.0 m.
+    #[test]
+    fn demo_faults_where_the_scenario_put_them() {
+        let (n, _, _, grid, peaks) = analyse("demo_feeder.s1p", DEMO, &defaults()).unwrap();
+        assert_eq!(n, 1601);
+        let d: Vec<f64> = peaks.iter().map(|p| p.distance.distance_m).collect();
+        assert_eq!(d.len(), 4, "{d:?}");
+        for (got, want) in d.iter().zip([12.425, 33.0, 33.4, 35.0]) {
+            assert!((got - want).abs() < grid.resolution_m, "{got} vs {want}");
+        }
+    }
+
+    #[test]
+    fn bad_file_names_the_line() {
+        let e = analyse("x.s1p", "# MHz S RI\n1 0 0\n2 0 zero\n", &defaults()).unwrap_err();
+        assert!(e.contains("line 3, column 5"), "{e}");
+        assert_eq!(parse_window("kaiser:8"), Some(Window::Kaiser { beta: 8.0 }));
+        assert_eq!(parse_window("blackman"), None);
     }
 }
