@@ -11,6 +11,10 @@
 //! double-precision arithmetic. Never pass a run-time `f64` through it on an
 //! `f32` path.
 //!
+//! Special functions that `num_traits::Float` lacks (erfc, Bessel J/Y) come from
+//! `libm` through the supertrait [`crate::math::special::LibmSpecial`], which
+//! calls the single-precision routine for `f32`.
+//!
 //! Constants (CODATA 2018 / SI 2019): c0 = 299 792 458 m/s exactly;
 //! μ0 = 1.256 637 062 12 × 10⁻⁶ H/m; ε0 = 1/(μ0 c0²); η0 = μ0·c0 ≈ 376.730 313 668 Ω
 //! (not 120π). 1 Np = 20/ln 10 dB ≈ 8.685 889 638 dB.
@@ -32,7 +36,16 @@ pub const DB_PER_NEPER: f64 = 8.685_889_638_065_037;
 pub const SIGMA_COPPER_S_PER_M: f64 = 5.8e7;
 
 /// The scalar of every computation: `f32` or `f64`.
-pub trait Real: Float + FloatConst + Copy + Debug + Default + PartialOrd + 'static {
+pub trait Real:
+    Float
+    + FloatConst
+    + Copy
+    + Debug
+    + Default
+    + PartialOrd
+    + 'static
+    + crate::math::special::LibmSpecial
+{
     /// Machine epsilon of the type.
     const EPS: Self;
     /// Converts a literal. Inlined so that constant arguments fold at compile time
