@@ -23,9 +23,11 @@
 
 pub mod coax;
 pub mod conductor;
+pub mod datasheet;
 pub mod dielectric;
 pub mod lossless;
 pub mod rlgc;
+pub(crate) mod tem;
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};
