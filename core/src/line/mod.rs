@@ -26,6 +26,7 @@ pub mod conductor;
 pub mod datasheet;
 pub mod dielectric;
 pub mod lossless;
+pub mod microstrip;
 pub mod rlgc;
 pub(crate) mod tem;
 
