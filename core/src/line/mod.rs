@@ -28,6 +28,7 @@ pub mod dielectric;
 pub mod lossless;
 pub mod microstrip;
 pub mod rlgc;
+pub mod stripline;
 pub(crate) mod tem;
 
 use crate::error::{self, Error, Result};
