@@ -23,6 +23,7 @@
 
 pub mod coax;
 pub mod conductor;
+pub mod cpw;
 pub mod datasheet;
 pub mod dielectric;
 pub mod lossless;
