@@ -31,6 +31,7 @@ pub mod microstrip;
 pub mod rlgc;
 pub mod stripline;
 pub(crate) mod tem;
+pub mod two_wire;
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};
