@@ -32,6 +32,7 @@ pub mod rlgc;
 pub mod stripline;
 pub(crate) mod tem;
 pub mod two_wire;
+pub mod waveguide;
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};
