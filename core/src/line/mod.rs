@@ -30,6 +30,7 @@ pub mod lossless;
 pub mod microstrip;
 pub mod rlgc;
 pub mod stripline;
+pub mod synth;
 pub(crate) mod tem;
 pub mod two_wire;
 pub mod waveguide;
