@@ -31,9 +31,10 @@
 //! x0 = 2/(1 + b/a), which brackets the first root and only it for every
 //! b/a > 1 (the root tends to 1.8412·a/b, the hollow-guide TE11, for b ≫ a); for
 //! b/a < 1.001 the approximation itself (error < 10⁻⁷) is used. ε′ is taken at
-//! the cutoff (two passes). `libm`'s single-precision Bessel functions use some
-//! double-precision arithmetic inside; this runs once per construction, not per
-//! frequency.
+//! the cutoff (two passes). J1′ and Y1′ come from their ascending series in the
+//! scalar's own precision (arguments stay within (0, 2.6] on that bracket), not
+//! from `libm`, whose single-precision Bessel functions use double precision
+//! inside. This runs once per construction, not per frequency.
 //!
 //! Approximation ([`Coax::te11_cutoff_approx_hz`]): fc ≈ c0/(π√εr(a + b))
 //! (kc ≈ 2/(a + b), the mean circumference equal to one wavelength). Its error
@@ -65,7 +66,6 @@ use crate::line::dielectric::Dielectric;
 use crate::line::rlgc::Rlgc;
 use crate::line::{LineModel, LinePoint, Warnings};
 use crate::math::roots::find_root;
-use crate::math::special::{bessel_j1_prime, bessel_y1_prime};
 use crate::scalar::Real;
 
 /// A coaxial line (see the module docs).
@@ -79,15 +79,58 @@ pub struct Coax<T> {
     te11_hz: T,
 }
 
+/// (J1′(x), Y1′(x)) for 0 < x ≤ 3 by the ascending series (Abramowitz & Stegun,
+/// *Handbook of Mathematical Functions*, 1964, eqs. 9.1.10 and 9.1.11 with n = 1,
+/// differentiated term by term), in the scalar's own precision:
+///
+///   J1′(x) = Σₖ (−1)ᵏ·(2k + 1)/2·(x/2)²ᵏ/(k!(k + 1)!),
+///   Y1′(x) = 2/(πx²) + (2/π)·[J1(x)/x + ln(x/2)·J1′(x)]
+///            − (1/π)·Σₖ (−1)ᵏ·[ψ(k + 1) + ψ(k + 2)]·(2k + 1)/2·(x/2)²ᵏ/(k!(k + 1)!),
+///
+/// ψ(1) = −γ, ψ(n + 1) = ψ(n) + 1/n. For x ≤ 3 the terms fall below ε of the
+/// sum within 20 terms and the largest term is about 2.3, so the sums lose at
+/// most one digit. (libm's single-precision J/Y use double precision inside;
+/// this keeps the f32 path in f32.)
+fn bessel1_prime_pair<T: Real>(x: T) -> (T, T) {
+    let h = x * T::half();
+    let h2 = h * h;
+    let mut s = T::one(); // (−1)ᵏ (x/2)²ᵏ/(k!(k+1)!)
+    let mut psi1 = -T::lit(0.577_215_664_901_532_9);
+    let mut psi2 = T::one() + psi1;
+    let (mut jp, mut j1h, mut ysum) = (T::zero(), T::zero(), T::zero());
+    for k in 0..30u32 {
+        if k > 0 {
+            let kf = T::from_usize(k as usize);
+            s = -s * h2 / (kf * (kf + T::one()));
+            psi1 = psi1 + T::one() / kf;
+            psi2 = psi2 + T::one() / (kf + T::one());
+        }
+        let c = (T::lit(2.0) * T::from_usize(k as usize) + T::one()) * T::half() * s;
+        jp = jp + c;
+        j1h = j1h + s;
+        ysum = ysum + (psi1 + psi2) * c;
+        if s.abs() <= T::EPS * T::lit(1e-3) {
+            break;
+        }
+    }
+    let j1 = j1h * h;
+    let yp =
+        T::two() / (T::PI() * x * x) + T::two() / T::PI() * (j1 / x + h.ln() * jp) - ysum / T::PI();
+    (jp, yp)
+}
+
 /// The smallest root x = kc·a of J1′(x)Y1′(rx) − J1′(rx)Y1′(x), r = b/a > 1.
+/// The bracket [0.5, 1.3]·x0 keeps x and rx within (0, 2.6], the range of
+/// [`bessel1_prime_pair`].
 fn te11_root<T: Real>(r: T) -> Result<T> {
     let x0 = T::two() / (T::one() + r);
     if r < T::lit(1.001) {
         return Ok(x0);
     }
     let cross = |x: T| -> Result<T> {
-        let rx = r * x;
-        Ok(bessel_j1_prime(x)? * bessel_y1_prime(rx)? - bessel_j1_prime(rx)? * bessel_y1_prime(x)?)
+        let (jx, yx) = bessel1_prime_pair(x);
+        let (jr, yr) = bessel1_prime_pair(r * x);
+        Ok(jx * yr - jr * yx)
     };
     let root = find_root(cross, T::half() * x0, T::lit(1.3) * x0, T::zero(), 100)?;
     Ok(root.x)
@@ -214,6 +257,21 @@ impl<T: Real> LineModel<T> for Coax<T> {
 mod tests {
     use super::*;
     use approx::assert_relative_eq;
+
+    #[test]
+    fn bessel_series_matches_libm_in_f64() {
+        // libm's double-precision J0/J1/Y0/Y1 as the check (A&S 9.1.27 for the
+        // derivatives).
+        for &x in &[1e-3f64, 0.05, 0.3, 1.0, 1.8412, 2.6, 3.0] {
+            let (jp, yp) = bessel1_prime_pair(x);
+            let jp_ref = libm::j0(x) - libm::j1(x) / x;
+            let yp_ref = libm::y0(x) - libm::y1(x) / x;
+            assert_relative_eq!(jp, jp_ref, max_relative = 1e-13, epsilon = 1e-15);
+            assert_relative_eq!(yp, yp_ref, max_relative = 1e-13);
+        }
+        // J1′ vanishes at the first root of J1′, 1.841 183 78 (A&S Table 9.5).
+        assert!(bessel1_prime_pair(1.841_183_781_340_659f64).0.abs() < 1e-14);
+    }
 
     #[test]
     fn per_unit_length_values() {

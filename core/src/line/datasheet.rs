@@ -161,8 +161,7 @@ impl<T: Real> DatasheetBuilder<T> {
             *slot = (f, a * np);
             n += 1;
         }
-        let (f1, a1) = figs[0];
-        let (f2, a2) = figs[1];
+        let [(f1, a1), (f2, a2)] = figs;
         let two = n == 2;
         if n == 0 {
             return Err(Error::TooShort {

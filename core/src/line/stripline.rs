@@ -80,7 +80,7 @@ fn wheeler_z0_sqrt_er<T: Real>(w_over_b: T, t_over_b: T) -> (T, T) {
     let x = t_over_b;
     let w_bt = w_over_b / (one - x);
     let dw_bt = if x > T::zero() {
-        let p = T::two() / (one + T::lit(2.0 / 3.0) * x / (one - x));
+        let p = T::two() / (one + T::lit(0.666_666_666_666_666_6) * x / (one - x));
         let a = x / (T::two() - x);
         let b = T::lit(0.0796) * x / (w_over_b + T::lit(1.1) * x);
         x / (T::PI() * (one - x)) * (one - T::half() * (a * a + b.powf(p)).ln())
