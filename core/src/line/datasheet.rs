@@ -36,7 +36,7 @@
 //! [`Warnings::NON_CAUSAL_DIELECTRIC`] when k2 > 0.
 //!
 //! Units: dB per metre internally; [`DB_PER_100FT_TO_DB_PER_M`] and
-//! [`DB_PER_100M_TO_DB_PER_M`] convert. Size: `DatasheetCable<f64>` ≤ 160 bytes.
+//! [`DB_PER_100M_TO_DB_PER_M`] convert. Size: `DatasheetCable<f64>` ≤ 128 bytes, `DatasheetCable<f32>` ≤ 64 bytes.
 
 use crate::error::{self, Error, Result};
 use crate::line::tem::{self, SkinLoss};
@@ -465,5 +465,11 @@ mod tests {
                 .build(),
             Err(Error::OutOfRange("velocity_factor_lo"))
         );
+    }
+
+    #[test]
+    fn size_is_as_documented() {
+        assert!(core::mem::size_of::<DatasheetCable<f64>>() <= 128);
+        assert!(core::mem::size_of::<DatasheetCable<f32>>() <= 64);
     }
 }

@@ -43,6 +43,8 @@
 //!
 //! Warnings: ABOVE_HIGHER_MODE, OUTSIDE_FIT_RANGE (W′/(b − t) > 10 with t > 0),
 //! THIN_CONDUCTOR where t/3 < δ < 3t, HIGH_LOSS, DIFFUSIVE, NON_CAUSAL_DIELECTRIC.
+//!
+//! Size: `Stripline<f64>` ≤ 208 bytes, `Stripline<f32>` ≤ 104 bytes (no heap).
 
 use crate::error::{self, Error, Result};
 use crate::line::conductor::Metal;
@@ -331,5 +333,11 @@ mod tests {
             cohn_z0_sqrt_er_ohm(-1.0f32),
             Err(Error::NotPositive("w_over_b"))
         );
+    }
+
+    #[test]
+    fn size_is_as_documented() {
+        assert!(core::mem::size_of::<Stripline<f64>>() <= 208);
+        assert!(core::mem::size_of::<Stripline<f32>>() <= 104);
     }
 }
