@@ -589,6 +589,20 @@ fn waveguide_invariants() {
             .unwrap()
             .warnings
             .contains(Warnings::EVANESCENT));
+        // f32 agrees with f64 above cutoff.
+        let m32 = if lossy {
+            Some(Metal::<f32>::copper())
+        } else {
+            None
+        };
+        let g32 = Waveguide::<f32>::new(22.86e-3, 10.16e-3, Dielectric::vacuum(), m32).unwrap();
+        for &m in &[1.1, 1.3, 1.6, 1.9] {
+            let (p, q) = (g.at(m * fc).unwrap(), g32.at((m * fc) as f32).unwrap());
+            agree(f(q.gamma_per_m.im), p.gamma_per_m.im, 1e-4, "waveguide β");
+            agree(f(q.gamma_per_m.re), p.gamma_per_m.re, 1e-3, "waveguide α");
+            let (z, z32) = (p.zc_ohm.finite().unwrap(), q.zc_ohm.finite().unwrap());
+            agree(f(z32.re), z.re, 1e-4, "waveguide Zc");
+        }
     }
 }
 

@@ -281,8 +281,13 @@ impl<T: Real> Cpw<T> {
             thin_hi_hz,
             base,
         };
+        let st = cpw.statics(er0)?;
+        // A substrate so thin that a modulus under- or overflows gives no usable line.
+        if !(st.0.is_finite() && st.0 > T::zero() && st.1.is_finite()) {
+            return Err(Error::OutOfRange("height_m"));
+        }
         if dielectric.debye().is_none() {
-            cpw.fixed = Some(cpw.statics(er0)?);
+            cpw.fixed = Some(st);
         }
         Ok(cpw)
     }
@@ -499,6 +504,16 @@ mod tests {
             cpw_z0_eps_eff(1e-4, 1e-4, Substrate::Thick, 0.9),
             Err(Error::OutOfRange("eps_r"))
         );
+        // S/h = 10⁴ on a backed substrate: k4′ underflows, no usable line.
+        let r = Cpw::new(
+            1e-2,
+            1e-4,
+            0.0,
+            Substrate::ConductorBacked { height_m: 1e-6 },
+            d,
+            None,
+        );
+        assert_eq!(r, Err(Error::OutOfRange("height_m")));
     }
 
     #[test]

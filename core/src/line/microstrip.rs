@@ -550,7 +550,12 @@ impl<T: Real> LineModel<T> for Microstrip<T> {
         let kr = self.kr(f);
         let zi = crate::math::complex::Cx::new(zi.re * kr, zi.im * kr);
         let (z, y) = tem::zy(f, z0, ee, tan_eff, zi);
-        let mut w = self.base.union(st.warn);
+        // The Jansen–Kirschning range applies only when its Zc dispersion is used.
+        let mut w = if self.zc_dispersion {
+            self.base.union(st.warn)
+        } else {
+            self.base
+        };
         w.set_if(skipped || er > T::lit(20.0), Warnings::OUTSIDE_FIT_RANGE);
         // h/λ0 = f·h/c0 within 0.13 (εeff) and 0.1 (Zc).
         w.set_if(
