@@ -8,6 +8,7 @@ pub mod line;
 pub mod math;
 pub mod network;
 pub mod scalar;
+pub mod sweep;
 pub mod tdr;
 pub mod timing;
 pub mod units;

@@ -27,7 +27,8 @@ if arm-none-eabi-nm "$bin/fw-f32" | grep -E '__aeabi_d|__(add|sub|mul|div)df3|__
   echo "FAIL: the f32 image contains double-precision soft-float routines" >&2; exit 1
 fi
 echo "   f32 image: no double-precision soft-float routines"
-if ! arm-none-eabi-nm "$bin/fw-f64" | grep -qE '__aeabi_d'; then
+n_d=$(arm-none-eabi-nm "$bin/fw-f64" | grep -cE '__aeabi_d' || true)
+if [ "$n_d" -eq 0 ]; then
   echo "FAIL: sanity: the f64 image should use soft-float doubles on an M4F; the symbol check is broken" >&2; exit 1
 fi
 echo "   (sanity: the f64 image does contain them, so the check can fail)"
@@ -42,8 +43,12 @@ echo "-- budgets"
 for p in f32 f64; do
   read -r text data bss _ < <(arm-none-eabi-size "$bin/fw-$p" | tail -1)
   flash=$((text + data)); ram=$((data + bss))
-  echo "   fw-$p: flash $flash B (budget $FLASH_BUDGET), static RAM $ram B"
-  [ "$flash" -le "$FLASH_BUDGET" ] || { echo "FAIL: flash budget" >&2; exit 1; }
+  if [ "$p" = f32 ]; then
+    echo "   fw-$p: flash $flash B (budget $FLASH_BUDGET B: the f32 firmware path), static RAM $ram B"
+    [ "$flash" -le "$FLASH_BUDGET" ] || { echo "FAIL: flash budget" >&2; exit 1; }
+  else
+    echo "   fw-$p: flash $flash B (reported only: doubles are soft-float on an M4F), static RAM $ram B"
+  fi
 done
 
 echo "-- host reference (same source, x86_64)"

@@ -165,40 +165,6 @@ fn fft_largest_length_f32() {
     assert!((d[n0].re - 1.0).abs() < 2e-6 && d[n0 + 1].norm() < 2e-6);
 }
 
-/// Speed of a 4096-point FFT. Run with
-/// `cargo test --release -p echoline-checks --test math fft_speed -- --ignored --nocapture`.
-#[test]
-#[ignore]
-fn fft_speed() {
-    /// Best of 40 batches (the machine may be shared), ns per transform.
-    fn best<F: FnMut()>(reps: usize, mut f: F) -> f64 {
-        (0..40)
-            .map(|_| {
-                let t0 = std::time::Instant::now();
-                for _ in 0..reps {
-                    f();
-                }
-                t0.elapsed().as_nanos() as f64 / reps as f64
-            })
-            .fold(f64::INFINITY, f64::min)
-    }
-    fn run<T: Real>(name: &str) {
-        let n = 4096;
-        let mut table = vec![Cx::new(T::zero(), T::zero()); n / 2];
-        fill_twiddles(&mut table).unwrap();
-        let plan = Fft::new(&table).unwrap();
-        let mut d: Vec<Cx<T>> = (0..n).map(|i| cx(((i * 7) % 13) as f64, 0.5)).collect();
-        let plan_ns = best(50, || plan.forward(std::hint::black_box(&mut d)).unwrap());
-        let free_ns = best(10, || fft(std::hint::black_box(&mut d)).unwrap());
-        let fill_ns = best(10, || {
-            fill_twiddles(std::hint::black_box(&mut table)).unwrap()
-        });
-        println!("{name}: 4096-point forward FFT: plan {plan_ns:.0} ns, table-free {free_ns:.0} ns; fill_twiddles {fill_ns:.0} ns");
-    }
-    run::<f32>("f32");
-    run::<f64>("f64");
-}
-
 // ---------------------------------------------------------------- windows
 
 fn window_of<T: Real>(kind: f64, beta: f64) -> Window<T> {

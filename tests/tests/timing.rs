@@ -685,7 +685,7 @@ fn bad_inputs_give_typed_errors() {
         velocity_from_two_lengths(-1.0f64, 20.0, 0.0, 1e-7, 2e-7, 0.0),
         Err(Error::Negative("length1_m"))
     );
-    assert_eq!(erfc_inv(-0.5f64), Err(Error::OutOfRange("p")));
+    assert_eq!(erfc_inv(-0.5f64), Err(Error::OutOfRange("y")));
     assert_eq!(
         SkinEdge::new(1e-5f32).unwrap().time_to_fraction_s(1.0),
         Err(Error::OutOfRange("fraction"))

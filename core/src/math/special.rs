@@ -29,10 +29,6 @@ use crate::scalar::Real;
 /// `erfc` for `f64`). Implemented for `f32` and `f64` only; a supertrait of
 /// [`Real`] so generic code can reach it.
 pub trait LibmSpecial: Copy {
-    /// Complementary error function erfc(x).
-    fn lib_erfc(self) -> Self;
-    /// Error function erf(x).
-    fn lib_erf(self) -> Self;
     /// Bessel function of the first kind, order 0.
     fn lib_j0(self) -> Self;
     /// Bessel function of the first kind, order 1.
@@ -44,14 +40,6 @@ pub trait LibmSpecial: Copy {
 }
 
 impl LibmSpecial for f32 {
-    #[inline]
-    fn lib_erfc(self) -> Self {
-        libm::erfcf(self)
-    }
-    #[inline]
-    fn lib_erf(self) -> Self {
-        libm::erff(self)
-    }
     #[inline]
     fn lib_j0(self) -> Self {
         libm::j0f(self)
@@ -71,14 +59,6 @@ impl LibmSpecial for f32 {
 }
 
 impl LibmSpecial for f64 {
-    #[inline]
-    fn lib_erfc(self) -> Self {
-        libm::erfc(self)
-    }
-    #[inline]
-    fn lib_erf(self) -> Self {
-        libm::erf(self)
-    }
     #[inline]
     fn lib_j0(self) -> Self {
         libm::j0(self)
@@ -245,14 +225,14 @@ pub fn bessel_i0<T: Real>(x: T) -> Result<T> {
 ///
 /// Errors: [`Error::NonFinite`]`("x")`.
 pub fn erfc<T: Real>(x: T) -> Result<T> {
-    Ok(finite(x, "x")?.lib_erfc())
+    Ok(finite(x, "x")?.erfc())
 }
 
 /// Error function erf(x), from `libm`.
 ///
 /// Errors: [`Error::NonFinite`]`("x")`.
 pub fn erf<T: Real>(x: T) -> Result<T> {
-    Ok(finite(x, "x")?.lib_erf())
+    Ok(finite(x, "x")?.erf())
 }
 
 /// erfc⁻¹ for y ≥ 1e−300 (`f64`) or ≥ 1e−36 (`f32`) in the tail; y ∈ (0, 1].
@@ -264,7 +244,7 @@ fn erfc_inv_upper<T: Real>(y: T) -> Result<T> {
     let ln_y = y.ln();
     let mut x = (-ln_y).sqrt();
     for _ in 0..100 {
-        let e = x.lib_erfc();
+        let e = x.erfc();
         if e <= T::zero() {
             // Underflow at the far tail: step back toward the root.
             x = x * T::lit(0.99);
@@ -322,7 +302,7 @@ fn erf_inv_central<T: Real>(z: T) -> Result<T> {
     let two_over_sqrt_pi = T::lit(core::f64::consts::FRAC_2_SQRT_PI);
     let mut x = z / two_over_sqrt_pi;
     for _ in 0..50 {
-        let step = (x.lib_erf() - z) / (two_over_sqrt_pi * (-x * x).exp());
+        let step = (x.erf() - z) / (two_over_sqrt_pi * (-x * x).exp());
         x = x - step;
         if step.abs() <= T::two() * T::EPS * x.abs() {
             return Ok(x);

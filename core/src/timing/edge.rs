@@ -21,9 +21,7 @@
 //! t_50 − T_d ≈ 1.099·a² (scipy, tests/scripts/vectors_timing.py): both grow with the **square** of the length, and the
 //! edge has a very long tail (it reaches 90 % only after ≈ 171 times its
 //! 10 % delay). [`SkinLoss`] holds a per metre, [`SkinEdge`] for one length.
-//! erfc⁻¹ ([`erfc_inv`]) is solved by Halley's method on erfc from a
-//! closed-form start (S. Winitzki's 2008 approximation of erf⁻¹, from memory;
-//! it only seeds the iteration, which converges to rounding level).
+//! erfc⁻¹ is [`crate::math::special::erfc_inv`] (re-exported here as [`erfc_inv`]).
 //!
 //! # Distance correction
 //!
@@ -42,61 +40,7 @@ use crate::line::LineModel;
 use crate::scalar::Real;
 use crate::timing::{Distance, VelocityRange};
 
-/// 2/√π.
-const TWO_OVER_SQRT_PI: f64 = core::f64::consts::FRAC_2_SQRT_PI;
-
-/// Inverse complementary error function: x with erfc(x) = p, for `p` in (0, 2)
-/// (down to the smallest normal number of the type).
-///
-/// Start: Winitzki's closed form for erf⁻¹ (a = 0.147, relative error ≈ 2e-3),
-/// with 1 − z² = p(2 − p) computed without cancellation; then Halley's
-/// iteration on f(x) = erfc(x) − p, using f″ = −2x·f′:
-/// x ← x − f/(f′ + x·f). erfc⁻¹(2 − p) = −erfc⁻¹(p).
-pub fn erfc_inv<T: Real>(p: T) -> Result<T> {
-    let p = error::finite(p, "p")?;
-    let two = T::two();
-    if !(p >= T::min_positive_value() && p < two) {
-        return Err(Error::OutOfRange("p"));
-    }
-    if p == T::one() {
-        return Ok(T::zero());
-    }
-    let (q, sign) = if p > T::one() {
-        (two - p, -T::one())
-    } else {
-        (p, T::one())
-    };
-    if q < T::min_positive_value() {
-        return Err(Error::OutOfRange("p"));
-    }
-    // Winitzki: erf⁻¹(z) ≈ √(√(b² − L/a) − b), b = 2/(πa) + L/2, L = ln(1 − z²).
-    let a = T::lit(0.147);
-    let ln1mz2 = (q * (two - q)).ln();
-    let b = T::lit(2.0 / (core::f64::consts::PI * 0.147)) + ln1mz2 * T::half();
-    let mut x = ((b * b - ln1mz2 / a).sqrt() - b).max(T::zero()).sqrt();
-    let k = T::lit(TWO_OVER_SQRT_PI);
-    let tol = T::EPS * T::lit(4.0);
-    for _ in 0..24 {
-        let f = x.erfc() - q;
-        let fp = -k * (-x * x).exp();
-        let den = fp + x * f;
-        if den == T::zero() || !den.is_finite() {
-            break;
-        }
-        let step = f / den;
-        x = x - step;
-        if step.abs() <= tol * x.abs() {
-            return Ok(sign * x);
-        }
-    }
-    // Accept when the residual is at rounding level (the last step may hover).
-    let r = (x.erfc() - q).abs();
-    if r <= T::lit(64.0) * T::EPS * q && x.is_finite() {
-        Ok(sign * x)
-    } else {
-        Err(Error::NoConvergence("erfc_inv"))
-    }
-}
+pub use crate::math::special::erfc_inv;
 
 /// Root-sum-square combination √(t_a² + t_b²) of two 10–90 % rise times, s
 /// (common practice, no single source; exact for Gaussian responses).
@@ -377,9 +321,9 @@ mod tests {
             let x = erfc_inv(p).unwrap();
             assert!((libm::erfcf(x) - p).abs() <= 1e-5 * p, "{p}");
         }
-        assert_eq!(erfc_inv(0.0f64), Err(Error::OutOfRange("p")));
-        assert_eq!(erfc_inv(2.0f32), Err(Error::OutOfRange("p")));
-        assert_eq!(erfc_inv(f64::NAN), Err(Error::NonFinite("p")));
+        assert_eq!(erfc_inv(0.0f64), Err(Error::OutOfRange("y")));
+        assert_eq!(erfc_inv(2.0f32), Err(Error::OutOfRange("y")));
+        assert_eq!(erfc_inv(f64::NAN), Err(Error::NonFinite("y")));
     }
 
     #[test]

@@ -6,9 +6,18 @@
 //! Results are reported as `key hex-bits` lines: no float formatting, which
 //! would add tens of KiB of flash.
 
+use echoline::line::coax::Coax;
+use echoline::line::dielectric::Dielectric;
 use echoline::line::lossless::Lossless;
 use echoline::line::properties;
-use echoline::Real;
+use echoline::network::cascade::Cascade;
+use echoline::network::load::Load;
+use echoline::tdr::{AdcCodes, Analysis, DetectSettings, EventKind, Trace, TraceSetup};
+use echoline::timing::VelocityRange;
+use echoline::{Impedance, Real};
+
+#[path = "demo_trace.rs"]
+mod demo_trace;
 
 /// Where results go: semihosting on the target, a string on the host.
 pub trait Sink {
@@ -38,11 +47,144 @@ fn put<T: Bits, S: Sink>(s: &mut S, key: &str, v: T) {
     s.put(key, v.bits());
 }
 
-/// Runs the whole firmware path once.
+/// Runs the whole firmware path once. Entry points of `echoline` covered
+/// (and so proven panic-free by the `no-panic-proof` link):
+/// `Lossless::new`, `line::properties`, `Dielectric::wideband_debye`,
+/// `Coax::new`, `Cascade::{new, push_line, input_impedance_sweep}`,
+/// `AdcCodes::{new, with_rails}`, `Trace::new`, `Analysis::empty`,
+/// `Trace::analyse_into`.
 pub fn run<T: Bits, S: Sink>(s: &mut S) {
-    line_from_figures::<T, S>(s);
+    for phase in PHASES {
+        run_phase::<T, S>(phase, s);
+    }
 }
 
+/// The phases of the firmware path, each measured for stack on the target.
+pub const PHASES: [&str; 3] = ["line", "sweep", "trace"];
+
+/// Runs one phase by name.
+pub fn run_phase<T: Bits, S: Sink>(phase: &str, s: &mut S) {
+    match phase {
+        "line" => line_from_figures::<T, S>(s),
+        "sweep" => coax_cascade_sweep::<T, S>(s),
+        "trace" => trace_analysis::<T, S>(s),
+        _ => s.fail("phase", phase),
+    }
+}
+
+#[inline(never)]
+fn coax_cascade_sweep<T: Bits, S: Sink>(s: &mut S) {
+    let pe = match Dielectric::wideband_debye(T::lit(2.25), T::lit(2e-4), T::lit(1e9)) {
+        Ok(d) => d,
+        Err(_) => return s.fail("coax", "dielectric"),
+    };
+    let coax = match Coax::new(
+        T::lit(0.9e-3),
+        T::lit(2.95e-3),
+        pe,
+        T::lit(5.8e7),
+        T::lit(0.2e-3),
+    ) {
+        Ok(c) => c,
+        Err(_) => return s.fail("coax", "new"),
+    };
+    match properties(&coax, T::lit(1e8)) {
+        Ok(p) => {
+            put(s, "coax.vf", p.velocity_factor);
+            put(s, "coax.db_per_m", p.atten_db_per_m);
+            if let Impedance::Finite(z) = p.point.zc_ohm {
+                put(s, "coax.zc_re", z.re);
+                put(s, "coax.zc_im", z.im);
+            }
+        }
+        Err(_) => return s.fail("coax", "properties"),
+    }
+    let mut c: Cascade<T, 4> = Cascade::new();
+    if c.push_line(&coax, T::lit(12.0)).is_err() || c.push_line(&coax, T::lit(3.5)).is_err() {
+        return s.fail("cascade", "push");
+    }
+    const POINTS: usize = 64;
+    let mut f = [T::zero(); POINTS];
+    for (i, x) in f.iter_mut().enumerate() {
+        *x = T::lit(1e6) + T::from_usize(i) * T::lit(15e6);
+    }
+    let mut z = [Impedance::Open; POINTS];
+    if c.input_impedance_sweep(&f, &Load::Resistor(T::lit(75.0)), &mut z)
+        .is_err()
+    {
+        return s.fail("cascade", "sweep");
+    }
+    let (mut sum_re, mut sum_im) = (T::zero(), T::zero());
+    for zi in z.iter() {
+        if let Impedance::Finite(v) = zi {
+            sum_re = sum_re + v.re;
+            sum_im = sum_im + v.im;
+        }
+    }
+    put(s, "sweep.sum_re", sum_re);
+    put(s, "sweep.sum_im", sum_im);
+}
+
+fn kind_code(k: EventKind) -> u64 {
+    match k {
+        EventKind::OpenEnd => 1,
+        EventKind::Short => 2,
+        EventKind::ImpedanceUp => 3,
+        EventKind::ImpedanceDown => 4,
+        EventKind::Capacitive => 5,
+        EventKind::Inductive => 6,
+        EventKind::Resistive => 7,
+        EventKind::EndOfTrace => 8,
+    }
+}
+
+const EVENT_KEYS: [[&str; 4]; 4] = [
+    ["ev0.kind", "ev0.distance_m", "ev0.rho", "ev0.hi_m"],
+    ["ev1.kind", "ev1.distance_m", "ev1.rho", "ev1.hi_m"],
+    ["ev2.kind", "ev2.distance_m", "ev2.rho", "ev2.hi_m"],
+    ["ev3.kind", "ev3.distance_m", "ev3.rho", "ev3.hi_m"],
+];
+
+#[inline(never)]
+fn trace_analysis<T: Bits, S: Sink>(s: &mut S) {
+    let codes = match AdcCodes::new(
+        &demo_trace::CODES[..],
+        T::lit(demo_trace::VOLTS_PER_CODE),
+        T::lit(-demo_trace::OFFSET_CODES * demo_trace::VOLTS_PER_CODE),
+    )
+    .and_then(|c| c.with_rails(0, 4095))
+    {
+        Ok(c) => c,
+        Err(_) => return s.fail("trace", "codes"),
+    };
+    let velocity = match VelocityRange::from_factor(T::lit(0.66), T::lit(0.01)) {
+        Ok(v) => v,
+        Err(_) => return s.fail("trace", "velocity"),
+    };
+    let trace = match Trace::new(
+        &codes,
+        TraceSetup::measured(T::lit(demo_trace::DT_S), T::lit(50.0), velocity),
+    ) {
+        Ok(t) => t,
+        Err(_) => return s.fail("trace", "new"),
+    };
+    let mut found = Analysis::<T, 8>::empty();
+    if trace
+        .analyse_into(&DetectSettings::default(), &mut found)
+        .is_err()
+    {
+        return s.fail("trace", "analyse");
+    }
+    s.put("events.count", found.events.len() as u64);
+    for (e, keys) in found.events.iter().zip(EVENT_KEYS.iter()) {
+        s.put(keys[0], kind_code(e.kind));
+        put(s, keys[1], e.distance.distance_m);
+        put(s, keys[2], e.rho);
+        put(s, keys[3], e.distance.hi_m);
+    }
+}
+
+#[inline(never)]
 fn line_from_figures<T: Bits, S: Sink>(s: &mut S) {
     let line = match Lossless::new(T::lit(50.0), T::lit(0.66)) {
         Ok(l) => l,

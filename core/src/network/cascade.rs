@@ -1,0 +1,462 @@
+//! Cascades of line sections and lumped elements, ended by a load.
+//!
+//! Elements are listed from the input (port 1) toward the load (port 2).
+//! Capacity is the const generic `N` (a `heapless::Vec`): pushing an
+//! (N+1)-th element is [`Error::Capacity`]. Memory: `N × size_of::<Element<T>>()`
+//! plus a length word; an element is at most 64 bytes in f64 and 32 bytes in
+//! f32 on a 64-bit host (a lumped R-L-C element holds three `Option<T>`).
+//!
+//! **Input impedance (fast path).** The cascade is walked from the load toward
+//! the input carrying the impedance as a ratio Z = V/I of two complex numbers
+//! (so an open is I = 0 with no special case and no division until the end).
+//! Across a line the reflection form is used (Pozar, *Microwave Engineering*,
+//! 4th ed., 2012, §2.3):
+//!
+//! Γ_L = (Z_L − Zc)/(Z_L + Zc), Γin = Γ_L·e^{−2γl}, Zin = Zc(1 + Γin)/(1 − Γin),
+//!
+//! with e^{−2γl} from [`crate::math::complex::exp_neg_turns`] (phase in turns,
+//! modulus ≤ 1). It has no tanh(γl) and so no pole: at γl = jπ/2 it gives
+//! Zc²/Z_L, and a long or very lossy line (αl = 200 Np) gives Zin → Zc without
+//! overflow. A 1 − Γin that cancels to within 8ε of its terms (the rounding
+//! of Γin itself) is taken as exactly 0: the input is an open (the shorted
+//! lossless quarter-wave). Where Zc is not a finite non-zero number (a line
+//! without leakage at DC has Zc = ∞) the section's ABCD map is used instead.
+//! Each line model is evaluated once per frequency.
+//!
+//! **Two-port view.** [`Cascade::abcd_at`] multiplies the [`Abcd`] matrices of
+//! the elements (scaled form, see [`crate::network::abcd`]); S, Z and Y
+//! parameters come from it. The two paths are tested against each other.
+
+use heapless::Vec;
+
+use crate::error::{self, Error, Result};
+use crate::line::LineModel;
+use crate::math::complex::{self, Cx};
+use crate::scalar::Real;
+use crate::value::Impedance;
+
+use super::abcd::{Abcd, SParams};
+use super::load::Load;
+use super::{inf_norm, ratio_to_impedance, reflection::reflection, snap_sum};
+
+/// One element of a cascade.
+#[derive(Clone, Copy)]
+pub enum Element<'a, T> {
+    /// A uniform line section.
+    Line {
+        /// The line model, evaluated once per frequency.
+        model: &'a dyn LineModel<T>,
+        /// Section length, m (finite, ≥ 0).
+        length_m: T,
+    },
+    /// A lumped element in series (between the two top conductors).
+    Series(Load<T>),
+    /// A lumped element in shunt (across the line).
+    Shunt(Load<T>),
+    /// An ideal transformer 1:n, n = `turns_ratio` > 0 (the input sees Z/n²).
+    Transformer {
+        /// The turns ratio n (secondary/primary, toward the load).
+        turns_ratio: T,
+    },
+}
+
+impl<T: core::fmt::Debug> core::fmt::Debug for Element<'_, T> {
+    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
+        match self {
+            Element::Line { length_m, .. } => {
+                f.debug_struct("Line").field("length_m", length_m).finish()
+            }
+            Element::Series(l) => f.debug_tuple("Series").field(l).finish(),
+            Element::Shunt(l) => f.debug_tuple("Shunt").field(l).finish(),
+            Element::Transformer { turns_ratio } => f
+                .debug_struct("Transformer")
+                .field("turns_ratio", turns_ratio)
+                .finish(),
+        }
+    }
+}
+
+impl<T: Real> Element<'_, T> {
+    fn validate(&self) -> Result<()> {
+        match self {
+            Element::Line { length_m, .. } => {
+                error::non_negative(*length_m, "length_m").map(|_| ())
+            }
+            Element::Series(l) | Element::Shunt(l) => l.validate(),
+            Element::Transformer { turns_ratio } => {
+                error::positive(*turns_ratio, "turns_ratio").map(|_| ())
+            }
+        }
+    }
+}
+
+/// A chain of at most `N` elements from the input toward the load.
+#[derive(Clone, Debug)]
+pub struct Cascade<'a, T, const N: usize> {
+    elements: Vec<Element<'a, T>, N>,
+}
+
+impl<T: Real, const N: usize> Default for Cascade<'_, T, N> {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
+impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
+    /// An empty cascade (the load seen directly).
+    pub const fn new() -> Self {
+        Cascade {
+            elements: Vec::new(),
+        }
+    }
+
+    /// Appends an element on the load side. Errors: [`Error::Capacity`]
+    /// (`"cascade"`, N) when full; the element's invalid parameter otherwise
+    /// (`"length_m"`, `"turns_ratio"`, `"r_ohm"`, ...).
+    pub fn push(&mut self, element: Element<'a, T>) -> Result<()> {
+        element.validate()?;
+        self.elements.push(element).map_err(|_| Error::Capacity {
+            what: "cascade",
+            capacity: N,
+        })
+    }
+
+    /// Appends a line section of `length_m`.
+    pub fn push_line(&mut self, model: &'a dyn LineModel<T>, length_m: T) -> Result<()> {
+        self.push(Element::Line { model, length_m })
+    }
+
+    /// The elements, input first.
+    pub fn elements(&self) -> &[Element<'a, T>] {
+        &self.elements
+    }
+
+    /// Number of elements.
+    pub fn len(&self) -> usize {
+        self.elements.len()
+    }
+
+    /// `true` if there is no element.
+    pub fn is_empty(&self) -> bool {
+        self.elements.is_empty()
+    }
+
+    /// The chain matrix of the whole cascade at `freq_hz ≥ 0`. A series open
+    /// or shunt short (e.g. a series capacitor at DC) has none:
+    /// [`Error::Undefined`] `"abcd"`.
+    pub fn abcd_at(&self, freq_hz: T) -> Result<Abcd<T>> {
+        let f = error::non_negative(freq_hz, "freq_hz")?;
+        let mut acc = Abcd::identity();
+        for e in self.elements.iter() {
+            let m = match e {
+                Element::Line { model, length_m } => Abcd::line(&model.at(f)?, *length_m)?,
+                Element::Series(l) => Abcd::series(l.impedance_unchecked(f))?,
+                Element::Shunt(l) => Abcd::shunt(l.impedance_unchecked(f))?,
+                Element::Transformer { turns_ratio } => Abcd::transformer(*turns_ratio)?,
+            };
+            acc = acc.then(&m);
+        }
+        Ok(acc)
+    }
+
+    /// S-parameters at `freq_hz` for the real reference `z_ref_ohm` at both
+    /// ports (see [`Abcd::s_params`] for the convention).
+    pub fn s_params(&self, freq_hz: T, z_ref_ohm: T) -> Result<SParams<T>> {
+        self.abcd_at(freq_hz)?.s_params(z_ref_ohm)
+    }
+
+    /// Z-parameters at `freq_hz` ([`Error::Undefined`] `"z_params"` where singular).
+    pub fn z_params(&self, freq_hz: T) -> Result<[[Cx<T>; 2]; 2]> {
+        self.abcd_at(freq_hz)?.z_params()
+    }
+
+    /// Y-parameters at `freq_hz` ([`Error::Undefined`] `"y_params"` where singular).
+    pub fn y_params(&self, freq_hz: T) -> Result<[[Cx<T>; 2]; 2]> {
+        self.abcd_at(freq_hz)?.y_params()
+    }
+
+    /// Input impedance at `freq_hz ≥ 0` with `load` at the far end (see the
+    /// module docs for the method).
+    pub fn input_impedance(&self, freq_hz: T, load: &Load<T>) -> Result<Impedance<T>> {
+        let f = error::non_negative(freq_hz, "freq_hz")?;
+        load.validate()?;
+        self.zin_checked(f, load)
+    }
+
+    /// Input reflection coefficient Γ = (Zin − Zr)/(Zin + Zr) for the
+    /// reference `z_ref_ohm` (Re > 0, complex allowed).
+    pub fn input_reflection(&self, freq_hz: T, load: &Load<T>, z_ref_ohm: Cx<T>) -> Result<Cx<T>> {
+        reflection(self.input_impedance(freq_hz, load)?, z_ref_ohm)
+    }
+
+    /// Input impedance at each of `freqs_hz` into `out` (same length, else
+    /// [`Error::LengthMismatch`] `"out"`). A bad frequency is
+    /// [`Error::NonFinite`] / [`Error::Negative`] `"freqs_hz"`; on any error
+    /// `out` is partly written. Frequencies are processed in blocks of
+    /// [`SWEEP_BLOCK`] (element by element across the block, so that the
+    /// independent frequencies overlap in the pipeline); the only memory used
+    /// besides `out` is a stack block of `SWEEP_BLOCK × 4` complex numbers
+    /// (1 KiB in f64, 512 bytes in f32). `out` holds
+    /// `size_of::<Impedance<T>>()` = 24 bytes per point in f64, 12 in f32.
+    pub fn input_impedance_sweep(
+        &self,
+        freqs_hz: &[T],
+        load: &Load<T>,
+        out: &mut [Impedance<T>],
+    ) -> Result<()> {
+        if freqs_hz.len() != out.len() {
+            return Err(Error::LengthMismatch("out"));
+        }
+        load.validate()?;
+        for f in freqs_hz.iter() {
+            error::non_negative(*f, "freqs_hz")?;
+        }
+        for (fs, os) in freqs_hz
+            .chunks(SWEEP_BLOCK)
+            .zip(out.chunks_mut(SWEEP_BLOCK))
+        {
+            self.walk_block::<SWEEP_BLOCK>(fs, load, os)?;
+        }
+        Ok(())
+    }
+
+    fn zin_checked(&self, f: T, load: &Load<T>) -> Result<Impedance<T>> {
+        let mut out = [Impedance::Open];
+        self.walk_block::<1>(&[f], load, &mut out)?;
+        let [z] = out;
+        Ok(z)
+    }
+
+    /// The load-to-input walk for up to `B` validated frequencies (`B` = 1 for one point).
+    fn walk_block<const B: usize>(
+        &self,
+        freqs: &[T],
+        load: &Load<T>,
+        out: &mut [Impedance<T>],
+    ) -> Result<()> {
+        let zero = Cx::new(T::zero(), T::zero());
+        let one = Cx::new(T::one(), T::zero());
+        let mut state = [(zero, zero); B];
+        for (st, f) in state.iter_mut().zip(freqs.iter()) {
+            *st = match load.impedance_unchecked(*f) {
+                Impedance::Open => (one, zero),
+                Impedance::Finite(z) => (z, one),
+            };
+        }
+        for e in self.elements.iter().rev() {
+            match e {
+                Element::Line { model, length_m } => {
+                    let l = *length_m;
+                    if l == T::zero() {
+                        continue;
+                    }
+                    // Phase 1: evaluate the line at every frequency of the block
+                    // (independent work); Zc and e^{−2γl} are kept, a section
+                    // without a finite non-zero Zc is applied at once by its ABCD map
+                    // and marked with Zc = 0.
+                    let mut zcs = [zero; B];
+                    let mut es = [zero; B];
+                    for (((zc_o, e_o), st), f) in zcs
+                        .iter_mut()
+                        .zip(es.iter_mut())
+                        .zip(state.iter_mut())
+                        .zip(freqs)
+                    {
+                        let p = model.at(*f)?;
+                        match p.zc_ohm {
+                            Impedance::Finite(zc)
+                                if inf_norm(zc) > T::zero() && complex::is_finite(zc) =>
+                            {
+                                let g = p.gamma_per_m;
+                                // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
+                                *e_o = complex::exp_neg_turns(
+                                    T::two() * g.re * l,
+                                    g.im * l * T::FRAC_1_PI(),
+                                );
+                                *zc_o = zc;
+                            }
+                            _ => {
+                                let m = Abcd::line(&p, l)?;
+                                let (n, d) = *st;
+                                *st = normalise(m.a * n + m.b * d, snap_sum(m.c * n, m.d * d))?;
+                            }
+                        }
+                    }
+                    // Phase 2: the reflection recursion, a short chain per frequency.
+                    for ((st, zc), e) in state.iter_mut().zip(zcs.iter()).zip(es.iter()) {
+                        if zc.re == T::zero() && zc.im == T::zero() {
+                            continue;
+                        }
+                        *st = line_step(*st, *zc, *e)?;
+                    }
+                }
+                _ => {
+                    for (st, f) in state.iter_mut().zip(freqs.iter()) {
+                        step(e, *f, st)?;
+                    }
+                }
+            }
+        }
+        for (o, st) in out.iter_mut().zip(state.iter()) {
+            *o = ratio_to_impedance(st.0, st.1)?;
+        }
+        Ok(())
+    }
+}
+
+/// Frequencies processed together by [`Cascade::input_impedance_sweep`].
+pub const SWEEP_BLOCK: usize = 16;
+
+/// One element of the walk: (n, d) at the element's load side → its input side,
+/// renormalised so that max |part| = 1.
+#[inline(always)]
+fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()> {
+    let zero = Cx::new(T::zero(), T::zero());
+    let one = Cx::new(T::one(), T::zero());
+    let (mut n, mut d) = *st;
+    match e {
+        Element::Line { .. } => {
+            // Lines are handled block-wise in `walk_block`.
+        }
+        Element::Series(ld) => match ld.impedance_unchecked(f) {
+            Impedance::Open => {
+                n = one;
+                d = zero;
+            }
+            Impedance::Finite(zs) => n = n + zs * d,
+        },
+        Element::Shunt(ld) => match ld.impedance_unchecked(f) {
+            Impedance::Open => {}
+            Impedance::Finite(zs) => {
+                if zs.re == T::zero() && zs.im == T::zero() {
+                    n = zero;
+                    d = one;
+                } else {
+                    let nn = n * zs;
+                    d = n + zs * d;
+                    n = nn;
+                }
+            }
+        },
+        Element::Transformer { turns_ratio } => d = d * (*turns_ratio * *turns_ratio),
+    }
+    *st = normalise(n, d)?;
+    Ok(())
+}
+
+/// Across a line of characteristic impedance `zc` with e = e^{−2γl}:
+/// Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e, Zin = Zc(1 + Γin)/(1 − Γin),
+/// kept as a ratio (n', d'). A 1 − Γin within 8ε of its terms is exactly 0.
+#[inline(always)]
+fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
+    let (n, d) = st;
+    let zd = zc * d;
+    let gn = n - zd; // numerator of Γ_L
+    let gd = n + zd; // denominator of Γ_L
+    let ge = gn * e; // numerator of Γin (same denominator)
+    let dd = gd - ge;
+    let tiny = T::lit(8.0) * T::EPS * inf_norm(gd).max(inf_norm(ge));
+    let dd = if inf_norm(dd) <= tiny {
+        Cx::new(T::zero(), T::zero())
+    } else {
+        dd
+    };
+    normalise(zc * (gd + ge), dd)
+}
+
+/// Scales (n, d) so that the largest part has modulus 1.
+#[inline(always)]
+fn normalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
+    let m = inf_norm(n).max(inf_norm(d));
+    if !(complex::is_finite(n) && complex::is_finite(d)) {
+        return Err(Error::NonFinite("input_impedance"));
+    }
+    if m == T::zero() {
+        return Err(Error::Undefined("input_impedance"));
+    }
+    let k = T::one() / m;
+    Ok((n * k, d * k))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::line::lossless::Lossless;
+    use crate::network::load::Rlc;
+
+    #[test]
+    fn element_sizes_are_as_documented() {
+        assert!(core::mem::size_of::<Element<'_, f64>>() <= 64);
+        assert!(core::mem::size_of::<Element<'_, f32>>() <= 32);
+    }
+
+    #[test]
+    fn capacity_is_an_error() {
+        let l = Lossless::<f64>::new(50.0, 0.66).unwrap();
+        let mut c: Cascade<'_, f64, 2> = Cascade::new();
+        c.push_line(&l, 1.0).unwrap();
+        c.push(Element::Series(Load::Resistor(5.0))).unwrap();
+        assert_eq!(
+            c.push_line(&l, 1.0),
+            Err(Error::Capacity {
+                what: "cascade",
+                capacity: 2
+            })
+        );
+        assert_eq!(c.len(), 2);
+        assert_eq!(c.push_line(&l, -1.0), Err(Error::Negative("length_m")));
+    }
+
+    #[test]
+    fn series_c_at_dc_opens_and_shunt_l_at_dc_shorts() {
+        let l = Lossless::<f32>::new(50.0, 0.66).unwrap();
+        let mut c: Cascade<'_, f32, 4> = Cascade::new();
+        c.push(Element::Series(Load::Series(Rlc::new(
+            None,
+            None,
+            Some(1e-9),
+        ))))
+        .unwrap();
+        c.push_line(&l, 2.0).unwrap();
+        assert_eq!(
+            c.input_impedance(0.0, &Load::Resistor(50.0)),
+            Ok(Impedance::Open)
+        );
+        assert_eq!(c.abcd_at(0.0), Err(Error::Undefined("abcd")));
+        let mut c: Cascade<'_, f32, 4> = Cascade::new();
+        c.push_line(&l, 2.0).unwrap();
+        c.push(Element::Shunt(Load::Parallel(Rlc::new(
+            None,
+            Some(1e-6),
+            None,
+        ))))
+        .unwrap();
+        assert_eq!(
+            c.input_impedance(0.0, &Load::Open),
+            Ok(Impedance::ohms(0.0))
+        );
+    }
+
+    #[test]
+    fn sweep_checks_lengths_and_frequencies() {
+        let l = Lossless::<f64>::new(50.0, 0.66).unwrap();
+        let mut c: Cascade<'_, f64, 1> = Cascade::new();
+        c.push_line(&l, 1.0).unwrap();
+        let mut out = [Impedance::Open; 2];
+        assert_eq!(
+            c.input_impedance_sweep(&[1.0], &Load::Short, &mut out),
+            Err(Error::LengthMismatch("out"))
+        );
+        assert_eq!(
+            c.input_impedance_sweep(&[1.0, -1.0], &Load::Short, &mut out),
+            Err(Error::Negative("freqs_hz"))
+        );
+        assert_eq!(
+            c.input_impedance_sweep(&[f64::NAN, 1.0], &Load::Short, &mut out),
+            Err(Error::NonFinite("freqs_hz"))
+        );
+        assert!(c
+            .input_impedance_sweep(&[1e6, 2e6], &Load::Short, &mut out)
+            .is_ok());
+    }
+}

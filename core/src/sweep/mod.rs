@@ -1,0 +1,1 @@
+//! Frequency sweeps: readers and distance-to-fault transforms (in progress).

@@ -1,0 +1,16 @@
+// Boot, first half. Inlined at the top of <head>, right after the base64 wasm,
+// so the module compiles (asynchronously, off the main thread) while the rest
+// of the page is parsed. No fetch, no module scripts: the file opens from
+// file:// with no network. main.js hands the compiled module to the
+// wasm-bindgen glue.
+'use strict';
+performance.mark('echoline:load');
+const ECHOLINE_MODULE = (() => {
+  const b64 = document.getElementById('core-wasm').textContent;
+  const bin = atob(b64);
+  const bytes = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+  return WebAssembly.compile(bytes);
+})();
+// Keep an early failure from being reported as unhandled; main.js shows it.
+ECHOLINE_MODULE.catch(() => {});

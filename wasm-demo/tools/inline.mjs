@@ -1,0 +1,53 @@
+// Inlines the page into one self-contained HTML file: styles, the wasm-bindgen
+// glue (--target no-modules), the optimised wasm as base64, and the page
+// scripts, in order. No module scripts, no fetch: it opens from file://.
+//
+// usage: node tools/inline.mjs <glue.js> <module.wasm> <out.html>
+import { readFileSync, writeFileSync, readdirSync, mkdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const page = join(here, '..', 'page');
+const [glue, wasm, out] = process.argv.slice(2);
+if (!glue || !wasm || !out) {
+  console.error('usage: node tools/inline.mjs <glue.js> <module.wasm> <out.html>');
+  process.exit(2);
+}
+const read = (p) => readFileSync(p, 'utf8');
+// A script's text must not close its element early.
+const safe = (js) => js.replace(/<\/(script)/gi, '<\\/$1').replace(/<!--/g, '<\\!--');
+
+// After the glue: the frame, then every section file in name order, then
+// js/main.js (js/load.js goes into <head>, see below).
+const sections = readdirSync(join(page, 'sections')).filter((f) => f.endsWith('.js')).sort();
+const scripts = [
+  'js/format.js',
+  'js/plot.js',
+  'js/app.js',
+  ...sections.map((f) => `sections/${f}`),
+  'js/main.js',
+];
+
+const template = read(join(page, 'index.html'));
+const css = read(join(page, 'style.css'));
+const b64 = readFileSync(wasm).toString('base64');
+const script = (s) => `<script>\n// ${s}\n${safe(read(join(page, s)))}\n</script>`;
+// In <head>: the wasm as base64 and js/load.js, which starts compiling it.
+const early = [
+  `<script type="application/octet-stream" id="core-wasm">${b64}</script>`,
+  script('js/load.js'),
+];
+// At the end of <body>: the wasm-bindgen glue, then the page scripts.
+const parts = [`<script>\n${safe(read(glue))}\n</script>`, ...scripts.map(script)];
+for (const marker of ['<!--@CORE-->', '<!--@STYLES-->', '<!--@SCRIPTS-->']) {
+  if (!template.includes(marker)) throw new Error(`template lacks ${marker}`);
+}
+const html = template
+  .replace('<!--@CORE-->', () => early.join('\n'))
+  .replace('<!--@STYLES-->', () => `<style>\n${css}\n</style>`)
+  .replace('<!--@SCRIPTS-->', () => parts.join('\n'));
+mkdirSync(dirname(out), { recursive: true });
+writeFileSync(out, html);
+const kb = (n) => `${(n / 1024).toFixed(1)} KB`;
+console.log(`${out}: ${kb(Buffer.byteLength(html))} (wasm ${kb(readFileSync(wasm).length)}, base64 ${kb(b64.length)})`);
