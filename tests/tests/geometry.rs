@@ -719,3 +719,126 @@ fn bad_geometry_gives_typed_errors() {
         Err(Error::OutOfRange("eps_r"))
     );
 }
+
+// ---------------------------------------------------------------------------
+// Hostile inputs: NaN, ±∞, ±0, subnormal, huge and tiny values into every
+// constructor and evaluation. Each call returns a result or a typed error,
+// never panics; a returned point holds no NaN and has α ≥ 0 (common practice,
+// no single source).
+
+fn hostile<T: Real>() -> Vec<T> {
+    [
+        f64::NAN,
+        f64::INFINITY,
+        f64::NEG_INFINITY,
+        0.0,
+        -0.0,
+        -1.0,
+        5e-324,
+        1e-300,
+        1e-30,
+        1e-9,
+        1e-3,
+        1.0,
+        7.5,
+        1e3,
+        1e12,
+        1e30,
+        1e300,
+    ]
+    .iter()
+    .map(|&v| T::lit(v))
+    .collect()
+}
+
+fn probe<T: Real>(m: &dyn LineModel<T>, freqs: &[T]) {
+    for &fr in freqs {
+        if let Ok(p) = m.at(fr) {
+            assert!(
+                !p.gamma_per_m.re.is_nan() && !p.gamma_per_m.im.is_nan(),
+                "{p:?}"
+            );
+            assert!(p.gamma_per_m.re >= T::zero(), "{p:?}");
+            if let echoline::Impedance::Finite(z) = p.zc_ohm {
+                assert!(!z.re.is_nan() && !z.im.is_nan(), "{p:?}");
+            }
+        }
+        let _ = properties(m, fr);
+    }
+    let _ = m.cutoff_hz();
+}
+
+fn hostile_sweep<T: Real>() {
+    let v = hostile::<T>();
+    let freqs = v.clone();
+    let l = T::lit;
+    let d = Dielectric::constant(l(4.4), l(0.02)).unwrap();
+    let cu = Some(Metal::<T>::copper());
+    for &a in &v {
+        for &b in &v {
+            if let Ok(m) = Microstrip::new(a, b, l(35e-6), d, cu) {
+                probe(&m, &freqs);
+            }
+            if let Ok(m) = Microstrip::new(l(1e-3), a, b, d, None) {
+                probe(&m, &freqs);
+            }
+            if let Ok(s) = Stripline::new(a, b, l(17e-6), d, cu) {
+                probe(&s, &freqs);
+            }
+            if let Ok(c) = Cpw::new(
+                a,
+                b,
+                l(3e-6),
+                Substrate::ConductorBacked { height_m: l(1e-3) },
+                d,
+                cu,
+            ) {
+                probe(&c, &freqs);
+            }
+            if let Ok(c) = Cpw::new(
+                l(1e-4),
+                l(1e-4),
+                l(3e-6),
+                Substrate::Finite { height_m: a },
+                d,
+                cu,
+            ) {
+                probe(&c, &freqs);
+            }
+            if let Ok(w) = TwoWire::new(a, b, d, cu) {
+                probe(&w, &freqs);
+            }
+            if let Ok(w) = TwoWire::twisted_pair(l(5e-4), a, d, b, cu) {
+                probe(&w, &freqs);
+            }
+            if let Ok(g) = Waveguide::new(a, b, d, cu) {
+                probe(&g, &freqs);
+            }
+            if let Ok(c) = Coax::new(a, b, d, l(5.8e7), l(1e-4)) {
+                probe(&c, &freqs);
+            }
+            if let Ok(c) = DatasheetCable::builder(l(50.0), l(0.66))
+                .attenuation_db_per_m(a, b)
+                .attenuation_db_per_m(l(1e9), l(0.5))
+                .build()
+            {
+                probe(&c, &freqs);
+            }
+            let _ = synth::microstrip_width_m(a, l(1e9), b, T::zero(), d);
+            let _ = synth::stripline_width_m(a, l(1e9), b, T::zero(), d);
+            let _ = synth::cpw_slot_width_m(a, l(1e9), b, Substrate::Thick, d);
+            let _ = synth::coax_inner_diameter_m(a, l(1e9), b, d);
+            let _ = synth::two_wire_spacing_m(a, l(1e9), b, d);
+            let _ = synth::twisted_pair_insulation_m(a, l(1e9), b, d, l(40.0));
+        }
+        let _ = hammerstad_jensen(a, l(4.4), T::zero());
+        let _ = cohn_z0_sqrt_er_ohm(a);
+        let _ = cpw_z0_eps_eff(l(1e-4), a, Substrate::Thick, l(4.4));
+    }
+}
+
+#[test]
+fn hostile_inputs_never_panic() {
+    hostile_sweep::<f64>();
+    hostile_sweep::<f32>();
+}

@@ -32,7 +32,10 @@ pub(crate) fn point<T: Real>(
     // Im ZY = ωL·G + ωC·R has no cancellation, so the small α keeps its
     // relative precision (√Z·√Y would lose ε·β/α of it). Zc = Z/γ.
     let zy = z * y;
-    let mut p = if zy.re != T::zero() || zy.im != T::zero() {
+    // Only a finite, non-zero ZY takes the one-root path (an overflowed product
+    // goes through `from_zy`, which rejects non-finite Z and Y and otherwise
+    // takes √Z·√Y separately).
+    let mut p = if complex::is_finite(zy) && (zy.re != T::zero() || zy.im != T::zero()) {
         let gamma = complex::sqrt(zy);
         if !complex::is_finite(gamma) {
             LinePoint::from_zy(f, z, y, zc_dc)?

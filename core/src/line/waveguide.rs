@@ -152,6 +152,9 @@ impl<T: Real> LineModel<T> for Waveguide<T> {
         let z = Cx::new(T::zero(), wmu);
         let y = Cx::new(weps * loss + g_w, weps * er - self.kc2 / wmu);
         let zy = z * y;
+        if !crate::math::complex::is_finite(zy) {
+            return Err(Error::NonFinite("gamma_per_m"));
+        }
         let gamma = crate::math::complex::sqrt(zy);
         let zc = crate::math::complex::div(z, gamma);
         let mut warn = self.base;
