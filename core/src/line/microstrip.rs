@@ -57,10 +57,13 @@
 //!
 //! Cost: with a constant dielectric every εr-dependent term is computed at
 //! construction; `at` then costs the dispersion (eleven `exp`, four `ln`), one
-//! `atan` with roughness, and the γ/Zc roots: about 1 600 instructions, 250 ns
-//! per point in `f64` on x86-64 (160 ns without the Zc dispersion). With a
-//! wideband Debye dielectric the static part is re-evaluated at ε′(f) on every
-//! call: about 3 800 instructions, 580 ns. (`core/benches/line_models.rs`.)
+//! `atan` with roughness, and the γ/Zc roots: about 1 600 instructions, 190 ns
+//! per point in `f64` on x86-64 (110 ns without the Zc dispersion; best of 40
+//! batches of 10 000 on a shared, loaded machine). With a wideband Debye
+//! dielectric the static part is re-evaluated at ε′(f) on every call: about
+//! 3 800 instructions, 540 ns, over the 300 ns goal; a table of the statics
+//! over the narrow ε′ range of the dielectric would remove most of it.
+//! (`core/benches/line_models.rs`.)
 //!
 //! Size: `Microstrip<f64>` ≤ 448 bytes, `Microstrip<f32>` ≤ 224 bytes (no heap).
 
