@@ -24,7 +24,11 @@
 //!   Packaging PHP-7(4):148–154, 1971 (from memory): εeff = 1 + q·(εr − 1) with
 //!   q = 0.25 + 0.0004·θ², θ = atan(T·π·D) the twist angle in degrees. A jacket
 //!   or a different fill is stated by setting q directly
-//!   ([`TwoWire::with_filling_factor`]); q applies to ε′ and ε″ alike.
+//!   ([`TwoWire::with_filling_factor`]); q applies to ε′ and ε″ alike. The fit
+//!   was made for twisted magnet wire (thin enamel film); with thick insulation
+//!   (data and telephone pairs) more of the field lies in the dielectric and q
+//!   is larger (for such pairs roughly 0.4–0.6 is typical, common practice, no
+//!   single source): Lefferson's q then reads Z0 high, so state q for them.
 //! * Twist lengthens each conductor by p = √(1 + (πDT)²) = 1/cos θ per metre
 //!   of pair (helix geometry; common practice): every per-unit-length quantity
 //!   along the pair (R, L, G, C) is multiplied by p, so Z0 is unchanged and the
