@@ -27,8 +27,8 @@
 //!   ([`TwoWire::with_filling_factor`]); q applies to ε′ and ε″ alike. The fit
 //!   was made for twisted magnet wire (thin enamel film); with thick insulation
 //!   (data and telephone pairs) more of the field lies in the dielectric and q
-//!   is larger (for such pairs roughly 0.4–0.6 is typical, common practice, no
-//!   single source): Lefferson's q then reads Z0 high, so state q for them.
+//!   is larger (roughly 0.4–0.6 for such pairs, value from memory): Lefferson's
+//!   q then reads Z0 high, so state q for them.
 //! * Twist lengthens each conductor by p = √(1 + (πDT)²) = 1/cos θ per metre
 //!   of pair (helix geometry; common practice): every per-unit-length quantity
 //!   along the pair (R, L, G, C) is multiplied by p, so Z0 is unchanged and the
