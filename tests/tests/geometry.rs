@@ -310,6 +310,41 @@ fn microstrip_within_wheeler_band() {
 }
 
 #[test]
+fn microstrip_dispersion_near_getsinger() {
+    // Getsinger, "Microstrip dispersion model", IEEE Trans. MTT-21:34–39, 1973
+    // (form from memory): εeff(f) = εr − (εr − εeff0)/(1 + G·(f/fp)²),
+    // fp = Z0/(2μ0h), G = 0.6 + 0.009·Z0. A cruder, independent model: the
+    // Kirschning–Jansen values lie within 8 % of it for h/λ0 ≤ 0.13 and both
+    // rise monotonically from εeff0 towards εr.
+    let mu0 = 1.256_637_062_12e-6;
+    for &er in &[2.2, 4.4, 9.8, 12.9] {
+        for &u in &[0.3, 1.0, 3.0] {
+            for &h in &[0.254e-3, 0.635e-3, 1.6e-3] {
+                let d = Dielectric::constant(er, 0.0).unwrap();
+                let m = Microstrip::new(u * h, h, 0.0, d, None).unwrap();
+                let (z0, e0) = m.z0_eps_eff_static(0.0).unwrap();
+                let fp = z0 / (2.0 * mu0 * h);
+                let g = 0.6 + 0.009 * z0;
+                let mut prev = e0;
+                for &fr in &[1e9, 5e9, 10e9, 20e9, 40e9] {
+                    if h * fr / 299_792_458.0 > 0.13 {
+                        continue;
+                    }
+                    let kj = m.eps_eff(fr).unwrap();
+                    let gs = er - (er - e0) / (1.0 + g * (fr / fp) * (fr / fp));
+                    assert!(
+                        close(kj, gs, 0.08, 0.0),
+                        "εr {er} u {u} h {h} f {fr}: {kj} vs {gs}"
+                    );
+                    assert!(kj > prev && kj < er);
+                    prev = kj;
+                }
+            }
+        }
+    }
+}
+
+#[test]
 fn microstrip_check_values_and_pozar() {
     // Reference notes (methods.md §2) [calc], t = 0.
     for &(er, u, z, e) in &[
