@@ -47,8 +47,8 @@ use std::fmt::Write as _;
 /// Events kept per trace.
 const CAP: usize = 32;
 const FT_PER_M: f64 = 1.0 / 0.3048;
-const CAUTION: &str = "CAUTION: connect only to a de-energised, isolated and earthed cable; \
-a live or charged cable can injure you and damage the instrument.";
+const CAUTION: &str = "CAUTION: de-energise, discharge and lock out the cable before connecting; \
+never connect to live conductors; use rated equipment; follow local codes and licensed practice.";
 
 /// A trace read from a file.
 #[derive(Debug, Clone, PartialEq)]
@@ -269,9 +269,12 @@ fn report(title: &str, a: &Analysis<f64, CAP>, v: &VelocityRange<f64>) -> String
     );
     for (i, e) in a.events.iter().enumerate() {
         let d = &e.distance;
-        let z = match e.z_after {
-            Impedance::Finite(c) => format!("{:.1} Ω", c.re),
-            Impedance::Open => "open".into(),
+        // An open end or short is named as such: on a lossy cable the level
+        // right after its edge is still rising, so Z from it would mislead.
+        let z = match (e.kind, e.z_after) {
+            (EventKind::OpenEnd, _) | (_, Impedance::Open) => "open".into(),
+            (EventKind::Short, _) => "short".into(),
+            (_, Impedance::Finite(c)) => format!("{:.1} Ω", c.re),
         };
         let value = match e.lumped {
             Lumped::Capacitance { farads } => format!("C = {}", si(farads, "F")),

@@ -16,6 +16,13 @@
 //! frequency f ≥ 0 **including DC**, with a [`Warnings`] set when the model's
 //! assumptions break. [`properties`] derives the velocities and losses.
 //!
+//! Models: [`lossless`], [`rlgc`] (per-unit-length, from DC), [`coax`] (with its
+//! TE11 cutoff), [`datasheet`] (Z0, VF and attenuation figures), [`microstrip`],
+//! [`stripline`], [`cpw`], [`two_wire`] (and twisted pair) and [`waveguide`]
+//! (TE10 as an equivalent dispersive line: the one model with no DC limit, its
+//! `at(0)` is [`Error::Undefined`]). [`synth`] solves one dimension of a
+//! geometry for a target impedance.
+//!
 //! At exactly 0 Hz the phase velocity ω/β is 0/0; [`properties`] reports the
 //! limit f → 0⁺, evaluated at [`DC_LIMIT_HZ`]. For a lossless line this is the
 //! exact 1/√(LC); for a line with series resistance it is the (small) diffusive
@@ -23,9 +30,17 @@
 
 pub mod coax;
 pub mod conductor;
+pub mod cpw;
+pub mod datasheet;
 pub mod dielectric;
 pub mod lossless;
+pub mod microstrip;
 pub mod rlgc;
+pub mod stripline;
+pub mod synth;
+pub(crate) mod tem;
+pub mod two_wire;
+pub mod waveguide;
 
 use crate::error::{self, Error, Result};
 use crate::math::complex::{self, Cx};

@@ -120,6 +120,33 @@ pub fn sqrt<T: Real>(z: Cx<T>) -> Cx<T> {
         let r = sqrt(Complex::new(x * up, y * up));
         return Complex::new(r.re * T::EPS, r.im * T::EPS);
     }
+    if !x.is_finite() || !y.is_finite() {
+        // C99 Annex G special values (the scaling below would never end on ∞).
+        let nan = T::nan();
+        return if y.is_infinite() {
+            Complex::new(T::infinity(), y)
+        } else if x.is_nan() || y.is_nan() {
+            Complex::new(nan, nan)
+        } else if x > T::zero() {
+            Complex::new(
+                x,
+                if y.is_sign_negative() {
+                    -T::zero()
+                } else {
+                    T::zero()
+                },
+            )
+        } else {
+            Complex::new(
+                T::zero(),
+                if y.is_sign_negative() {
+                    -T::infinity()
+                } else {
+                    T::infinity()
+                },
+            )
+        };
+    }
     let quarter_max = T::max_value() * T::lit(0.25);
     if x.abs() > quarter_max || y.abs() > quarter_max {
         // sqrt(z) = 2·sqrt(z/4): keeps |z| and |x| + |z| finite.
@@ -266,6 +293,12 @@ mod tests {
         let s = sqrt(cx(0.0f64, 2.0));
         assert_relative_eq!(s.re, 1.0, max_relative = 1e-15);
         assert_relative_eq!(s.im, 1.0, max_relative = 1e-15);
+        let inf = sqrt(cx(f64::INFINITY, 1.0));
+        assert_eq!((inf.re, inf.im), (f64::INFINITY, 0.0));
+        let ninf = sqrt(cx(f64::NEG_INFINITY, -1.0));
+        assert_eq!((ninf.re, ninf.im), (0.0, f64::NEG_INFINITY));
+        assert!(sqrt(cx(f32::NAN, 0.0)).re.is_nan());
+        assert_eq!(sqrt(cx(1.0f64, f64::INFINITY)).re, f64::INFINITY);
         let sub = sqrt(cx(5e-324f64, 0.0));
         assert_relative_eq!(sub.re, 5e-324f64.sqrt(), max_relative = 1e-12);
         assert_eq!(sub.im, 0.0);

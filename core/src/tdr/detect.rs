@@ -807,23 +807,22 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     for n in n_start..n_end {
         let (sc, left, right) = filters.at(s, n);
         let sc = sc.unwrap_or(T::zero());
-        // Creep estimate: the minmod of the filter outputs 2w either side. A
-        // slow creep gives outputs of one sign on both sides; outputs of
-        // opposite signs are two real edges (e.g. both ends of a short
-        // section), not a creep, and must not be subtracted.
-        let trend = match (left, right) {
+        // Creep estimates from the filter outputs 2w either side. For
+        // detection, their minmod: a slow creep gives outputs of one sign on
+        // both sides, while outputs of opposite signs are two real edges (both
+        // ends of a short section), which must not be subtracted or they invent
+        // steps. For the level measurement of a step, the smaller of the two
+        // (`slope_trend`): on a lossy cable the level before an edge creeps one
+        // way and the edge's own slow tail the other, and extrapolating with
+        // the smaller creep reads the step height best.
+        let (trend, slope_trend) = match (left, right) {
             (Some(a), Some(b)) => {
-                if a * b <= T::zero() {
-                    T::zero()
-                } else if a.abs() <= b.abs() {
-                    a
-                } else {
-                    b
-                }
+                let small = if a.abs() <= b.abs() { a } else { b };
+                (if a * b <= T::zero() { T::zero() } else { small }, small)
             }
-            (Some(a), None) => a,
-            (None, Some(b)) => b,
-            (None, None) => T::zero(),
+            (Some(a), None) => (a, a),
+            (None, Some(b)) => (b, b),
+            (None, None) => (T::zero(), T::zero()),
         };
         let x = sc - trend;
         let ax = x.abs();
@@ -833,7 +832,7 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
                 if ax > l.peak {
                     l.peak = ax;
                     l.peak_idx = n;
-                    l.trend = trend;
+                    l.trend = slope_trend;
                 }
                 l.end = n + 1;
                 lobe = Some(l);
@@ -853,7 +852,7 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
                 end: n + 1,
                 peak_idx: n,
                 peak: ax,
-                trend,
+                trend: slope_trend,
             });
         }
     }
