@@ -41,7 +41,9 @@ use crate::line::conductor::{Conductor, Metal};
 use crate::line::dielectric::Dielectric;
 use crate::line::rlgc::Rlgc;
 use crate::line::{LineModel, LinePoint};
+use crate::math::complex::Cx;
 use crate::scalar::Real;
+use crate::value::Impedance;
 
 /// A coaxial line (see the module docs).
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -138,6 +140,15 @@ impl<T: Real> LineModel<T> for Coax<T> {
     #[inline]
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         self.rlgc.at(freq_hz)
+    }
+    #[inline]
+    fn propagation_into(
+        &self,
+        freqs_hz: &[T],
+        gamma_per_m: &mut [Cx<T>],
+        zc_ohm: &mut [Impedance<T>],
+    ) -> Result<()> {
+        self.rlgc.propagation_into(freqs_hz, gamma_per_m, zc_ohm)
     }
     // TE11 cutoff (approx. c0/(π√εr(a + b)), exact from the Bessel cross-product
     // root; see the reference notes) belongs here: `cutoff_hz` and an

@@ -278,50 +278,62 @@ impl<T: Real> Rlgc<T> {
     }
 }
 
+impl<T: Real> Rlgc<T> {
+    /// γ and Zc from Z and Y by the unscaled principal root, or `None` when
+    /// max(|Re ZY|, |Im ZY|) is outside the bounds where its squares are safe
+    /// (then [`LinePoint::from_zy`] is used).
+    #[inline(always)]
+    fn gamma_zc_fast(&self, z: Cx<T>, y: Cx<T>) -> Option<(Cx<T>, Cx<T>)> {
+        let p = z * y;
+        let big = p.re.abs().max(p.im.abs());
+        if !(big > self.safe_lo && big < self.safe_hi) {
+            return None;
+        }
+        // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
+        // (|γ|² = |ZY|). With m = |ZY| and t = √((|Re| + m)/2), the small
+        // part of the root is |Im ZY|/(2t) = |Im ZY|·t/(|Re| + m), so one
+        // division 1/((|Re| + m)·m) serves both it and 1/m, and runs beside
+        // the second square root. The squares cannot overflow inside these bounds.
+        let m = (p.re * p.re + p.im * p.im).sqrt();
+        let s = p.re.abs() + m;
+        let t = (T::half() * s).sqrt();
+        let inv = T::one() / (s * m);
+        let small = p.im.abs() * t * (m * inv);
+        let inv_m = s * inv;
+        let gamma = if p.re >= T::zero() {
+            Cx::new(
+                t,
+                if p.im.is_sign_negative() {
+                    -small
+                } else {
+                    small
+                },
+            )
+        } else {
+            Cx::new(small, if p.im.is_sign_negative() { -t } else { t })
+        };
+        let zc = z * gamma.conj();
+        Some((gamma, Cx::new(zc.re * inv_m, zc.im * inv_m)))
+    }
+}
+
 impl<T: Real> LineModel<T> for Rlgc<T> {
     #[inline]
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let z = self.z_of(f);
         let y = self.y_of(f);
-        let p = z * y;
-        let big = p.re.abs().max(p.im.abs());
-        let mut point = if big > self.safe_lo && big < self.safe_hi {
-            // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
-            // (|γ|² = |ZY|). With m = |ZY| and t = √((|Re| + m)/2), the small
-            // part of the root is |Im ZY|/(2t) = |Im ZY|·t/(|Re| + m), so one
-            // division 1/((|Re| + m)·m) serves both it and 1/m, and runs beside
-            // the second square root. The squares cannot overflow inside these bounds.
-            let m = (p.re * p.re + p.im * p.im).sqrt();
-            let s = p.re.abs() + m;
-            let t = (T::half() * s).sqrt();
-            let inv = T::one() / (s * m);
-            let small = p.im.abs() * t * (m * inv);
-            let inv_m = s * inv;
-            let gamma = if p.re >= T::zero() {
-                Cx::new(
-                    t,
-                    if p.im.is_sign_negative() {
-                        -small
-                    } else {
-                        small
-                    },
-                )
-            } else {
-                Cx::new(small, if p.im.is_sign_negative() { -t } else { t })
-            };
-            let zc = z * gamma.conj();
-            LinePoint {
+        let mut point = match self.gamma_zc_fast(z, y) {
+            Some((gamma, zc)) => LinePoint {
                 freq_hz: f,
                 z_ohm_per_m: z,
                 y_s_per_m: y,
                 gamma_per_m: gamma,
-                zc_ohm: Impedance::from_complex(Cx::new(zc.re * inv_m, zc.im * inv_m)),
+                zc_ohm: Impedance::from_complex(zc),
                 model_loss_split_np_per_m: None,
                 warnings: Warnings::NONE,
-            }
-        } else {
-            LinePoint::from_zy(f, z, y, self.zc_dc)?
+            },
+            None => LinePoint::from_zy(f, z, y, self.zc_dc)?,
         };
         let mut w = self.base_warnings;
         let tenth = T::lit(0.1);
@@ -342,6 +354,35 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         }
         point.warnings = w;
         Ok(point)
+    }
+
+    /// As [`LineModel::at`] without warnings, one call per block.
+    fn propagation_into(
+        &self,
+        freqs_hz: &[T],
+        gamma_per_m: &mut [Cx<T>],
+        zc_ohm: &mut [Impedance<T>],
+    ) -> Result<()> {
+        if gamma_per_m.len() < freqs_hz.len() || zc_ohm.len() < freqs_hz.len() {
+            return Err(Error::LengthMismatch("gamma_per_m"));
+        }
+        for ((f, g), zc_o) in freqs_hz
+            .iter()
+            .zip(gamma_per_m.iter_mut())
+            .zip(zc_ohm.iter_mut())
+        {
+            let f = error::non_negative(*f, "freq_hz")?;
+            let z = self.z_of(f);
+            let y = self.y_of(f);
+            (*g, *zc_o) = match self.gamma_zc_fast(z, y) {
+                Some((gamma, zc)) => (gamma, Impedance::from_complex(zc)),
+                None => {
+                    let p = LinePoint::from_zy(f, z, y, self.zc_dc)?;
+                    (p.gamma_per_m, p.zc_ohm)
+                }
+            };
+        }
+        Ok(())
     }
 }
 

@@ -250,44 +250,37 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                     if l == T::zero() {
                         continue;
                     }
-                    // Phase 1: evaluate the line at every frequency of the block
-                    // (independent work); Zc and e^{−2γl} are kept, a section
-                    // without a finite non-zero Zc is applied at once by its ABCD map
-                    // and marked with Zc = 0.
-                    let mut zcs = [zero; B];
-                    let mut es = [zero; B];
-                    for (((zc_o, e_o), st), f) in zcs
+                    // γ and Zc at every frequency of the block in one call; then
+                    // e^{−2γl} and the reflection step per frequency (independent
+                    // chains that overlap in the pipeline). A section without a
+                    // finite non-zero Zc is evaluated again in full and applied by
+                    // its ABCD map.
+                    let mut gammas = [zero; B];
+                    let mut zcs = [Impedance::Open; B];
+                    model.propagation_into(freqs, &mut gammas, &mut zcs)?;
+                    for (((st, g), zc), f) in state
                         .iter_mut()
-                        .zip(es.iter_mut())
-                        .zip(state.iter_mut())
+                        .zip(gammas.iter())
+                        .zip(zcs.iter())
                         .zip(freqs)
                     {
-                        let p = model.at(*f)?;
-                        match p.zc_ohm {
+                        match *zc {
                             Impedance::Finite(zc)
                                 if inf_norm(zc) > T::zero() && complex::is_finite(zc) =>
                             {
-                                let g = p.gamma_per_m;
                                 // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
-                                *e_o = complex::exp_neg_turns(
+                                let e = complex::exp_neg_turns(
                                     T::two() * g.re * l,
                                     g.im * l * T::FRAC_1_PI(),
                                 );
-                                *zc_o = zc;
+                                *st = line_step(*st, zc, e)?;
                             }
                             _ => {
-                                let m = Abcd::line(&p, l)?;
+                                let m = Abcd::line(&model.at(*f)?, l)?;
                                 let (n, d) = *st;
                                 *st = normalise(m.a * n + m.b * d, snap_sum(m.c * n, m.d * d))?;
                             }
                         }
-                    }
-                    // Phase 2: the reflection recursion, a short chain per frequency.
-                    for ((st, zc), e) in state.iter_mut().zip(zcs.iter()).zip(es.iter()) {
-                        if zc.re == T::zero() && zc.im == T::zero() {
-                            continue;
-                        }
-                        *st = line_step(*st, *zc, *e)?;
                     }
                 }
                 _ => {
@@ -361,7 +354,21 @@ fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>,
     } else {
         dd
     };
-    normalise(zc * (gd + ge), dd)
+    renormalise(zc * (gd + ge), dd)
+}
+
+/// As [`normalise`], but leaves (n, d) as they are while the sum of the moduli
+/// of the four parts is within [2⁻³², 2³²] (finite, far from overflow in the
+/// next step): scaling both by the same factor does not change the ratio, so
+/// the division and the finiteness checks are only paid outside that range.
+/// A NaN or infinity makes the sum fail both comparisons (a `max` would drop a NaN).
+#[inline(always)]
+fn renormalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
+    let m = (n.re.abs() + n.im.abs()) + (d.re.abs() + d.im.abs());
+    if m >= T::lit(2.328_306_436_538_696_3e-10) && m <= T::lit(4_294_967_296.0) {
+        return Ok((n, d));
+    }
+    normalise(n, d)
 }
 
 /// Scales (n, d) so that the largest part has modulus 1.
