@@ -232,7 +232,7 @@ impl<T: Real> Rlgc<T> {
     }
 
     /// Series impedance Z(f) per metre, Ω/m.
-    #[inline]
+    #[inline(always)]
     fn z_of(&self, f: T) -> Cx<T> {
         let mut z = Cx::new(self.r0, self.two_pi_l * f);
         for c in self.conductors.iter().flatten() {
@@ -242,7 +242,7 @@ impl<T: Real> Rlgc<T> {
     }
 
     /// Shunt admittance Y(f) per metre, S/m.
-    #[inline]
+    #[inline(always)]
     fn y_of(&self, f: T) -> Cx<T> {
         let (er, loss) = self.dielectric.eval(f);
         let wc = self.two_pi_c * f;
@@ -285,7 +285,8 @@ impl<T: Real> Rlgc<T> {
     #[inline(always)]
     fn gamma_zc_fast(&self, z: Cx<T>, y: Cx<T>) -> Option<(Cx<T>, Cx<T>)> {
         let p = z * y;
-        let big = p.re.abs().max(p.im.abs());
+        let (a, b) = (p.re.abs(), p.im.abs());
+        let big = if a > b { a } else { b }; // a NaN fails the bounds below
         if !(big > self.safe_lo && big < self.safe_hi) {
             return None;
         }
@@ -371,7 +372,10 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
             .zip(gamma_per_m.iter_mut())
             .zip(zc_ohm.iter_mut())
         {
-            let f = error::non_negative(*f, "freq_hz")?;
+            let f = *f;
+            if !(f >= T::zero() && f <= T::max_value()) {
+                error::non_negative(f, "freq_hz")?;
+            }
             let z = self.z_of(f);
             let y = self.y_of(f);
             (*g, *zc_o) = match self.gamma_zc_fast(z, y) {

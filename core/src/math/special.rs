@@ -147,11 +147,15 @@ pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
     };
     let s = th - th * z * p;
     let c = T::one() - z * q;
-    match (k.to_i64_sat()).rem_euclid(4) {
-        0 => (s, c),
-        1 => (c, -s),
-        2 => (-s, -c),
-        _ => (-c, s),
+    // Quadrant k ∈ {−2, −1, 0, 1, 2} (k mod 4 = 0: (s, c), 1: (c, −s),
+    // 2: (−s, −c), 3: (−c, s)), by selects rather than an integer match: no
+    // float-to-integer conversion and no branch on the phase.
+    let ka = k.abs();
+    let (a, b) = if ka == T::one() { (c, -s) } else { (s, c) };
+    if k == -T::one() || ka == T::two() {
+        (-a, -b)
+    } else {
+        (a, b)
     }
 }
 

@@ -265,8 +265,10 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                         .zip(freqs)
                     {
                         match *zc {
+                            // 0 < |Re| + |Im| ≤ max: finite and non-zero (NaN fails).
                             Impedance::Finite(zc)
-                                if inf_norm(zc) > T::zero() && complex::is_finite(zc) =>
+                                if zc.re.abs() + zc.im.abs() > T::zero()
+                                    && zc.re.abs() + zc.im.abs() <= T::max_value() =>
                             {
                                 // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
                                 let e = complex::exp_neg_turns(
@@ -348,13 +350,30 @@ fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>,
     let gd = n + zd; // denominator of Γ_L
     let ge = gn * e; // numerator of Γin (same denominator)
     let dd = gd - ge;
-    let tiny = T::lit(8.0) * T::EPS * inf_norm(gd).max(inf_norm(ge));
-    let dd = if inf_norm(dd) <= tiny {
+    let tiny = T::lit(8.0) * T::EPS * max_fast(norm_fast(gd), norm_fast(ge));
+    let dd = if norm_fast(dd) <= tiny {
         Cx::new(T::zero(), T::zero())
     } else {
         dd
     };
     renormalise(zc * (gd + ge), dd)
+}
+
+/// max(|re|, |im|) by plain comparisons (no NaN handling: `f64::max` spends
+/// several instructions on dropping a NaN operand; here a NaN simply fails
+/// the comparison it feeds and the result is checked by [`renormalise`]).
+#[inline(always)]
+fn norm_fast<T: Real>(z: Cx<T>) -> T {
+    max_fast(z.re.abs(), z.im.abs())
+}
+
+#[inline(always)]
+fn max_fast<T: Real>(a: T, b: T) -> T {
+    if a > b {
+        a
+    } else {
+        b
+    }
 }
 
 /// As [`normalise`], but leaves (n, d) as they are while the sum of the moduli
