@@ -21,7 +21,12 @@
 //! of Γin itself) is taken as exactly 0: the input is an open (the shorted
 //! lossless quarter-wave). Where Zc is not a finite non-zero number (a line
 //! without leakage at DC has Zc = ∞) the section's ABCD map is used instead.
-//! Each line model is evaluated once per frequency.
+//! Each line model is evaluated once per frequency (in sweeps, one
+//! [`LineModel::propagation_into`] call per block of frequencies gives γ and Zc).
+//! The ratio (n, d) is rescaled only when the sum of its parts' moduli leaves
+//! [2⁻³², 2³²] (a common factor does not change n/d), and the final n/d uses
+//! one reciprocal n·conj(d)/|d|² where |d| is within [2⁻⁶⁰, 2⁶⁰] (Smith's
+//! division otherwise).
 //!
 //! **Two-port view.** [`Cascade::abcd_at`] multiplies the [`Abcd`] matrices of
 //! the elements (scaled form, see [`crate::network::abcd`]); S, Z and Y
@@ -194,9 +199,11 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
     /// [`Error::NonFinite`] / [`Error::Negative`] `"freqs_hz"`; on any error
     /// `out` is partly written. Frequencies are processed in blocks of
     /// [`SWEEP_BLOCK`] (element by element across the block, so that the
-    /// independent frequencies overlap in the pipeline); the only memory used
-    /// besides `out` is a stack block of `SWEEP_BLOCK × 4` complex numbers
-    /// (1 KiB in f64, 512 bytes in f32). `out` holds
+    /// independent frequencies overlap in the pipeline, and each line model is
+    /// called once per block through [`LineModel::propagation_into`]); the only
+    /// memory used besides `out` is a stack block of `SWEEP_BLOCK` × (three
+    /// complex numbers and one [`Impedance`]) (1152 bytes in f64, 576 in f32).
+    /// `out` holds
     /// `size_of::<Impedance<T>>()` = 24 bytes per point in f64, 12 in f32.
     pub fn input_impedance_sweep(
         &self,
