@@ -1,3 +1,4 @@
+#![allow(dead_code)]
 //! Helpers shared by the fuzz targets: arbitrary floats from raw bytes (every
 //! bit pattern, so NaN, ±∞, subnormals, huge and tiny values all occur).
 

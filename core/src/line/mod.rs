@@ -183,7 +183,13 @@ impl<T: Real> LinePoint<T> {
         }
         let sz = complex::sqrt(z_ohm_per_m);
         let sy = complex::sqrt(y_s_per_m);
-        let gamma = sz * sy;
+        let mut gamma = sz * sy;
+        // For passive Z and Y, Re γ ≥ 0 exactly; the product of the two roots
+        // can round to a tiny negative value (e.g. 1e-154 when Z is nearly
+        // imaginary): clamp it so that α ≥ 0 always holds.
+        if gamma.re < T::zero() {
+            gamma.re = T::zero();
+        }
         let zero = T::zero();
         let y_zero = y_s_per_m.re == zero && y_s_per_m.im == zero;
         let z_zero = z_ohm_per_m.re == zero && z_ohm_per_m.im == zero;

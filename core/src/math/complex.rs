@@ -29,8 +29,33 @@ pub fn cx<T: Real>(re: T, im: T) -> Cx<T> {
 
 /// Robust complex division `a / b` (Smith 1962). Division by exactly zero gives
 /// non-finite components; callers that can meet it check first.
+///
+/// Near the overflow threshold both operands are first scaled by 1/8 (exact,
+/// a power of two), so that the intermediate b.re + b.im·r and a.re + a.im·r
+/// cannot overflow to ∞/∞ = NaN when the quotient itself is finite.
 #[inline]
 pub fn div<T: Real>(a: Cx<T>, b: Cx<T>) -> Cx<T> {
+    let big = T::max_value() * T::lit(0.125);
+    let eighth = T::lit(0.125);
+    let (a, b) = if b.re.abs() > big || b.im.abs() > big {
+        (
+            Complex::new(a.re * eighth, a.im * eighth),
+            Complex::new(b.re * eighth, b.im * eighth),
+        )
+    } else {
+        (a, b)
+    };
+    if a.re.abs() > big || a.im.abs() > big {
+        let q = smith(Complex::new(a.re * eighth, a.im * eighth), b);
+        let eight = T::lit(8.0);
+        return Complex::new(q.re * eight, q.im * eight);
+    }
+    smith(a, b)
+}
+
+/// Smith's algorithm proper (operands already scaled away from overflow).
+#[inline(always)]
+fn smith<T: Real>(a: Cx<T>, b: Cx<T>) -> Cx<T> {
     if b.re.abs() >= b.im.abs() {
         if b.re == T::zero() {
             // b == 0 (both parts zero): let IEEE rules speak (inf or nan).
@@ -85,6 +110,15 @@ pub fn sqrt<T: Real>(z: Cx<T>) -> Cx<T> {
     let y = z.im;
     if x == T::zero() && y == T::zero() {
         return Complex::new(T::zero(), y);
+    }
+    // Tiny (near-subnormal) arguments: sqrt(z) = sqrt(z/ε²)·ε, with ε the
+    // machine epsilon (a power of two, so the scaling is exact); without it
+    // (|x| + |z|)/2 rounds to 0 and y/(2t) is 0/0.
+    let tiny = T::min_positive_value() / T::EPS;
+    if x.abs() < tiny && y.abs() < tiny {
+        let up = T::one() / (T::EPS * T::EPS);
+        let r = sqrt(Complex::new(x * up, y * up));
+        return Complex::new(r.re * T::EPS, r.im * T::EPS);
     }
     let quarter_max = T::max_value() * T::lit(0.25);
     if x.abs() > quarter_max || y.abs() > quarter_max {
@@ -213,6 +247,13 @@ mod tests {
         assert_relative_eq!(q.im, 1.0, max_relative = 1e-14);
         let q32 = div(cx(1.0f32, 0.0), cx(1e30, 1e30));
         assert_relative_eq!(q32.re, 5e-31, max_relative = 1e-5);
+        // Both operands near the overflow threshold: the quotient is 1, not NaN.
+        let h = cx(1.16e308f64, 1.16e308);
+        let q = div(h, h);
+        assert_relative_eq!(q.re, 1.0, max_relative = 1e-15);
+        assert_relative_eq!(q.im, 0.0, epsilon = 1e-15);
+        let q32 = div(cx(3e38f32, 3e38), cx(3e38f32, 3e38));
+        assert_relative_eq!(q32.re, 1.0, max_relative = 1e-6);
     }
 
     #[test]
@@ -225,6 +266,11 @@ mod tests {
         let s = sqrt(cx(0.0f64, 2.0));
         assert_relative_eq!(s.re, 1.0, max_relative = 1e-15);
         assert_relative_eq!(s.im, 1.0, max_relative = 1e-15);
+        let sub = sqrt(cx(5e-324f64, 0.0));
+        assert_relative_eq!(sub.re, 5e-324f64.sqrt(), max_relative = 1e-12);
+        assert_eq!(sub.im, 0.0);
+        let sub32 = sqrt(cx(1e-45f32, 1e-45));
+        assert!(sub32.re > 0.0 && sub32.im > 0.0 && sub32.re.is_finite());
         let big = sqrt(cx(1e300f64, 1e300));
         assert!(big.re.is_finite() && big.re > 0.0);
         let s32 = sqrt(cx(3e38f32, 3e38));

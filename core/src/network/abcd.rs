@@ -333,12 +333,19 @@ impl<T: Real> Abcd<T> {
             complex::div(Cx::new(T::two(), T::zero()), delta),
             -self.scale_np,
         );
-        Ok(SParams {
+        let s = SParams {
             s11: complex::div(self.a + bz - cz - self.d, delta),
             s12: self.det * s21,
             s21,
             s22: complex::div(bz - self.a - cz + self.d, delta),
-        })
+        };
+        if [s.s11, s.s12, s.s21, s.s22]
+            .iter()
+            .any(|x| x.re.is_nan() || x.im.is_nan())
+        {
+            return Err(Error::Undefined("s_params"));
+        }
+        Ok(s)
     }
 
     /// The two-port from S-parameters for the real reference `z_ref_ohm`

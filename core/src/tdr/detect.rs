@@ -47,14 +47,23 @@
 //!    by their round-trip transmission.
 //! 2. A step after which Γ ≥ [`DetectSettings::end_gamma`] (default 0.8) is an
 //!    **open end**; Γ ≤ −end_gamma a **short**. Detection stops there: later
-//!    lobes are echoes and only counted.
+//!    lobes are echoes and only counted. A rising step on a level already at
+//!    Γ ≥ end_gamma (falling, at ≤ −end_gamma) is the slow tail of a far end on
+//!    a lossy cable: the impedance-up (-down) step just before it becomes the
+//!    open end (short) and the tail is counted as an echo.
 //! 3. Otherwise a step is **impedance up** (ρ > 0) or **impedance down**.
 //!    If no open or short was found, the last large step
 //!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`]) is an **open end** or
 //!    **short** when its *settled* level [`Event::gamma_settled`] (just
 //!    before the next event or the end of the trace) passes ±end_gamma: a far
 //!    end on a lossy cable rises slowly (skin effect), so its level right after
-//!    the edge reads low.
+//!    the edge reads low. Limit: on a very long lossy cable (e.g. 200 m of
+//!    thin PE coax) the step over the default filter stays below
+//!    resistive_min_rho, and the end is reported as impedance up with
+//!    `gamma_settled` ≈ ±1; set [`DetectSettings::filter_samples`] near the
+//!    edge's length to classify it (tests/tests/tdr_roundtrip.rs). Its 50 %
+//!    reading is then late by the skin-effect delay: correct it with
+//!    [`crate::timing::edge::correct_skin_delay`].
 //! 4. If no open or short was found, the last large event
 //!    (|ρ| ≥ [`DetectSettings::resistive_min_rho`], default 0.1; smaller later
 //!    ones are taken as multiple reflections), when it is a step that leaves
@@ -485,9 +494,33 @@ impl<T: Real, S: Samples<T> + ?Sized, const N: usize> Run<'_, '_, '_, T, S, N> {
             .trace
             .gamma_at_level(ma - slope * (centre_a - T::from_usize(c)));
         let vinc = self.trace.incident_v;
-        let kind = if gamma_after >= self.set.end_gamma {
+        let end = self.set.end_gamma;
+        let gamma_before = gamma_after - dv / vinc;
+        // A step of the same sign on a level already past ±end_gamma is the
+        // slow tail of a far end on a lossy cable: the step before it is the end.
+        let tail_of = if gamma_before >= end && dv / vinc > T::zero() {
+            Some(EventKind::OpenEnd)
+        } else if gamma_before <= -end && dv / vinc < T::zero() {
+            Some(EventKind::Short)
+        } else {
+            None
+        };
+        if let Some(end_kind) = tail_of {
+            let want = if end_kind == EventKind::OpenEnd {
+                EventKind::ImpedanceUp
+            } else {
+                EventKind::ImpedanceDown
+            };
+            if let Some(prev) = self.out.last_mut().filter(|p| p.kind == want) {
+                prev.kind = end_kind;
+                self.ended = true;
+                self.echoes += 1;
+                return None;
+            }
+        }
+        let kind = if gamma_after >= end {
             EventKind::OpenEnd
-        } else if gamma_after <= -self.set.end_gamma {
+        } else if gamma_after <= -end {
             EventKind::Short
         } else if dv / vinc > T::zero() {
             EventKind::ImpedanceUp
@@ -774,23 +807,22 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     for n in n_start..n_end {
         let (sc, left, right) = filters.at(s, n);
         let sc = sc.unwrap_or(T::zero());
-        // Creep estimate: the minmod of the filter outputs 2w either side. A
-        // slow creep gives outputs of one sign on both sides; outputs of
-        // opposite signs are two real edges (e.g. both ends of a short
-        // section), not a creep, and must not be subtracted.
-        let trend = match (left, right) {
+        // Creep estimates from the filter outputs 2w either side. For
+        // detection, their minmod: a slow creep gives outputs of one sign on
+        // both sides, while outputs of opposite signs are two real edges (both
+        // ends of a short section), which must not be subtracted or they invent
+        // steps. For the level measurement of a step, the smaller of the two
+        // (`slope_trend`): on a lossy cable the level before an edge creeps one
+        // way and the edge's own slow tail the other, and extrapolating with
+        // the smaller creep reads the step height best.
+        let (trend, slope_trend) = match (left, right) {
             (Some(a), Some(b)) => {
-                if a * b <= T::zero() {
-                    T::zero()
-                } else if a.abs() <= b.abs() {
-                    a
-                } else {
-                    b
-                }
+                let small = if a.abs() <= b.abs() { a } else { b };
+                (if a * b <= T::zero() { T::zero() } else { small }, small)
             }
-            (Some(a), None) => a,
-            (None, Some(b)) => b,
-            (None, None) => T::zero(),
+            (Some(a), None) => (a, a),
+            (None, Some(b)) => (b, b),
+            (None, None) => (T::zero(), T::zero()),
         };
         let x = sc - trend;
         let ax = x.abs();
@@ -800,7 +832,7 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
                 if ax > l.peak {
                     l.peak = ax;
                     l.peak_idx = n;
-                    l.trend = trend;
+                    l.trend = slope_trend;
                 }
                 l.end = n + 1;
                 lobe = Some(l);
@@ -820,7 +852,7 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
                 end: n + 1,
                 peak_idx: n,
                 peak: ax,
-                trend,
+                trend: slope_trend,
             });
         }
     }

@@ -28,6 +28,10 @@ use crate::error::{self, Error, Result};
 use crate::scalar::Real;
 use crate::timing::{self, VelocityRange};
 
+/// Largest sample magnitude accepted, V (1e12: far beyond any instrument,
+/// and small enough that sums over a trace of 2^20 samples stay finite in f32).
+pub const MAX_ABS_V: f64 = 1e12;
+
 /// Shortest trace accepted, samples.
 pub const MIN_SAMPLES: usize = 16;
 /// Samples before the launch used for the pre-launch level (at most).
@@ -547,10 +551,19 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
         let source_ohm = error::positive(setup.source_ohm, "source_ohm")?;
         // Validates the velocity range once (all distances use it).
         timing::distance_from_round_trip(T::zero(), T::zero(), &setup.velocity)?;
+        let max_v = T::lit(MAX_ABS_V);
         if let Some(v) = setup.incident_v {
             let v = error::finite(v, "incident_v")?;
             if v == T::zero() {
                 return Err(Error::Undefined("incident_v"));
+            }
+            if v.abs() > max_v {
+                return Err(Error::OutOfRange("incident_v"));
+            }
+        }
+        if let Some(v) = setup.pre_launch_v {
+            if error::finite(v, "pre_launch_v")?.abs() > max_v {
+                return Err(Error::OutOfRange("pre_launch_v"));
             }
         }
         let mut clipping = Clipping::default();
@@ -559,7 +572,9 @@ impl<'a, T: Real, S: Samples<T> + ?Sized> Trace<'a, T, S> {
                 what: "samples",
                 index: i,
             })?;
-            if !v.is_finite() {
+            // Finite and within ±MAX_ABS_V, so that sums and differences of
+            // samples cannot overflow in f32.
+            if !v.is_finite() || v.abs() > max_v {
                 return Err(Error::BadIndex {
                     what: "samples",
                     index: i,
@@ -731,5 +746,27 @@ mod tests {
         assert_eq!(median_in_place(&mut b), Some(2.5));
         let mut c: [f64; 0] = [];
         assert_eq!(median_in_place(&mut c), None);
+    }
+
+    #[test]
+    fn samples_beyond_the_voltage_bound_are_rejected() {
+        let mut x = [0.0f32; 64];
+        x[40] = 1e13;
+        let v = VelocityRange::from_factor(0.66, 0.02).unwrap();
+        let r = Trace::new(&x[..], TraceSetup::measured(1e-9, 50.0, v));
+        assert_eq!(
+            r.err(),
+            Some(Error::BadIndex {
+                what: "samples",
+                index: 40
+            })
+        );
+        let mut setup = TraceSetup::measured(1e-9, 50.0, v);
+        setup.incident_v = Some(1e20);
+        let y = [0.0f32; 64];
+        assert_eq!(
+            Trace::new(&y[..], setup).err(),
+            Some(Error::OutOfRange("incident_v"))
+        );
     }
 }

@@ -214,11 +214,16 @@ pub fn distance_from_round_trip<T: Real>(
     let lo = error::positive(velocity.lo_m_per_s, "lo_m_per_s")?;
     let hi = error::positive(velocity.hi_m_per_s, "hi_m_per_s")?;
     let h = T::half();
-    Ok(Distance {
+    let d = Distance {
         distance_m: v * t * h,
         lo_m: lo * (t - dt).max(T::zero()) * h,
         hi_m: hi * (t + dt) * h,
-    })
+    };
+    // A round trip so long that the distance overflows the scalar.
+    if !(d.hi_m.is_finite() && d.distance_m.is_finite()) {
+        return Err(Error::OutOfRange("t_round_s"));
+    }
+    Ok(d)
 }
 
 /// A round-trip time with its interval, seconds.
