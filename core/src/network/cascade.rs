@@ -216,7 +216,10 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
         }
         load.validate()?;
         for f in freqs_hz.iter() {
-            error::non_negative(*f, "freqs_hz")?;
+            // One comparison pair per frequency; the named error on the cold path.
+            if !(*f >= T::zero() && *f <= T::max_value()) {
+                error::non_negative(*f, "freqs_hz")?;
+            }
         }
         for (fs, os) in freqs_hz
             .chunks(SWEEP_BLOCK)
