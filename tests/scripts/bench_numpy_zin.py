@@ -1,13 +1,21 @@
 """Times the input-impedance sweep of core/benches/zin_sweep.rs in numpy.
 
 Same problem: 10,000 frequencies from 1 MHz to 1 GHz, three constant-RLGC line
-sections (Z = R + jwL, Y = G + jwC, gamma = sqrt(Z*Y), Zc = Z/gamma, as the bench's model)
+sections (Z = R + jwL, Y = G + jwC, gamma = sqrt(Z*Y), Zc = Z/gamma, as the bench's
+`echoline::line::rlgc::Rlgc::constant` sections)
 ended by a series R-L-C load, input impedance by the reflection recursion
 Gamma_in = Gamma_L * exp(-2*gamma*l), Zin = Zc*(1 + Gamma_in)/(1 - Gamma_in).
 The numpy code is vectorised over frequency (one array operation per formula step).
 
     python3 tests/scripts/bench_numpy_zin.py            # numpy only
     python3 tests/scripts/bench_numpy_zin.py --cargo    # also run the cargo bench, print the ratio
+
+tests/scripts/bench_numpy.py holds the identical formulas (`zin_numpy`) and
+times them beside event detection and an FFT against core/examples/perf_probe.rs
+in one run, with a ratio table.
+
+OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE (which this machine may set) are removed
+from the environment for the timing: the script re-executes itself without them.
 
 With --cargo the Rust figure is read from criterion's estimates
 (target/criterion/zin_sweep/<f64|f32>/new/sample.json: the fastest sample, comparable
@@ -66,6 +74,10 @@ def cargo_ns_per_point(kind):
 
 
 def main():
+    drop = ("OPENBLAS_CORETYPE", "OPENBLAS_L2_SIZE")
+    if any(k in os.environ for k in drop):
+        env = {k: v for k, v in os.environ.items() if k not in drop}
+        os.execve(sys.executable, [sys.executable, os.path.abspath(__file__)] + sys.argv[1:], env)
     f = np.linspace(F_LO_HZ, F_HI_HZ, POINTS)
     ns_np = time_numpy(f)
     print(f"numpy {np.__version__}: {ns_np:.1f} ns per point (best of 20, float64, {POINTS} points, 3 sections)")

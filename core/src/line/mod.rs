@@ -280,6 +280,33 @@ pub trait LineModel<T: Real> {
     /// Evaluates the line at `freq_hz ≥ 0`.
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>>;
 
+    /// γ ([`LinePoint::gamma_per_m`]) and Zc ([`LinePoint::zc_ohm`]) at each of
+    /// `freqs_hz` (each finite and ≥ 0, else the error of [`LineModel::at`]),
+    /// written to the first `freqs_hz.len()` entries of `gamma_per_m` and
+    /// `zc_ohm` (shorter buffers: [`Error::LengthMismatch`]). The same
+    /// values as [`LineModel::at`] without the warnings: frequency sweeps make
+    /// one call per block of frequencies. The default calls `at` per frequency.
+    fn propagation_into(
+        &self,
+        freqs_hz: &[T],
+        gamma_per_m: &mut [Cx<T>],
+        zc_ohm: &mut [Impedance<T>],
+    ) -> Result<()> {
+        if gamma_per_m.len() < freqs_hz.len() || zc_ohm.len() < freqs_hz.len() {
+            return Err(Error::LengthMismatch("gamma_per_m"));
+        }
+        for ((f, g), z) in freqs_hz
+            .iter()
+            .zip(gamma_per_m.iter_mut())
+            .zip(zc_ohm.iter_mut())
+        {
+            let p = self.at(*f)?;
+            *g = p.gamma_per_m;
+            *z = p.zc_ohm;
+        }
+        Ok(())
+    }
+
     /// The frequency of the first higher-order mode, surface-wave onset or
     /// waveguide cutoff, if the model knows it.
     fn cutoff_hz(&self) -> Option<T> {

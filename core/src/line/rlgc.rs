@@ -63,6 +63,7 @@ pub struct Rlgc<T> {
     two_pi_c: T,
     base_warnings: Warnings,
     has_tube: bool,
+    has_conductor: bool,
     zc_dc: Option<Cx<T>>,
     // Bounds on max(|Re ZY|, |Im ZY|) for the unscaled fast path.
     safe_lo: T,
@@ -146,6 +147,7 @@ impl<T: Real> RlgcBuilder<T> {
             Warnings::NON_CAUSAL_DIELECTRIC,
         );
         let has_tube = self.conductors.iter().flatten().any(|c| c.is_tube());
+        let has_conductor = self.conductors.iter().any(|c| c.is_some());
         // |ZY| within [4√min, √max/4]: its squared modulus neither overflows nor underflows.
         let safe_hi = T::max_value().sqrt() * T::lit(0.25);
         let safe_lo = T::min_positive_value().sqrt() * T::lit(4.0);
@@ -160,6 +162,7 @@ impl<T: Real> RlgcBuilder<T> {
             two_pi_c: T::two_pi() * c_vac,
             base_warnings,
             has_tube,
+            has_conductor,
             zc_dc,
             safe_lo,
             safe_hi,
@@ -232,17 +235,19 @@ impl<T: Real> Rlgc<T> {
     }
 
     /// Series impedance Z(f) per metre, Ω/m.
-    #[inline]
+    #[inline(always)]
     fn z_of(&self, f: T) -> Cx<T> {
         let mut z = Cx::new(self.r0, self.two_pi_l * f);
-        for c in self.conductors.iter().flatten() {
-            z = z + c.eval(f);
+        if self.has_conductor {
+            for c in self.conductors.iter().flatten() {
+                z = z + c.eval(f);
+            }
         }
         z
     }
 
     /// Shunt admittance Y(f) per metre, S/m.
-    #[inline]
+    #[inline(always)]
     fn y_of(&self, f: T) -> Cx<T> {
         let (er, loss) = self.dielectric.eval(f);
         let wc = self.two_pi_c * f;
@@ -278,50 +283,63 @@ impl<T: Real> Rlgc<T> {
     }
 }
 
+impl<T: Real> Rlgc<T> {
+    /// γ and Zc from Z and Y by the unscaled principal root, or `None` when
+    /// max(|Re ZY|, |Im ZY|) is outside the bounds where its squares are safe
+    /// (then [`LinePoint::from_zy`] is used).
+    #[inline(always)]
+    fn gamma_zc_fast(&self, z: Cx<T>, y: Cx<T>) -> Option<(Cx<T>, Cx<T>)> {
+        let p = z * y;
+        let (a, b) = (p.re.abs(), p.im.abs());
+        let big = if a > b { a } else { b }; // a NaN fails the bounds below
+        if !(big > self.safe_lo && big < self.safe_hi) {
+            return None;
+        }
+        // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
+        // (|γ|² = |ZY|). With m = |ZY| and t = √((|Re| + m)/2), the small
+        // part of the root is |Im ZY|/(2t) = |Im ZY|·t/(|Re| + m), so one
+        // division 1/((|Re| + m)·m) serves both it and 1/m, and runs beside
+        // the second square root. The squares cannot overflow inside these bounds.
+        let m = (p.re * p.re + p.im * p.im).sqrt();
+        let s = p.re.abs() + m;
+        let t = (T::half() * s).sqrt();
+        let inv = T::one() / (s * m);
+        let small = p.im.abs() * t * (m * inv);
+        let inv_m = s * inv;
+        let gamma = if p.re >= T::zero() {
+            Cx::new(
+                t,
+                if p.im.is_sign_negative() {
+                    -small
+                } else {
+                    small
+                },
+            )
+        } else {
+            Cx::new(small, if p.im.is_sign_negative() { -t } else { t })
+        };
+        let zc = z * gamma.conj();
+        Some((gamma, Cx::new(zc.re * inv_m, zc.im * inv_m)))
+    }
+}
+
 impl<T: Real> LineModel<T> for Rlgc<T> {
     #[inline]
     fn at(&self, freq_hz: T) -> Result<LinePoint<T>> {
         let f = error::non_negative(freq_hz, "freq_hz")?;
         let z = self.z_of(f);
         let y = self.y_of(f);
-        let p = z * y;
-        let big = p.re.abs().max(p.im.abs());
-        let mut point = if big > self.safe_lo && big < self.safe_hi {
-            // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
-            // (|γ|² = |ZY|). With m = |ZY| and t = √((|Re| + m)/2), the small
-            // part of the root is |Im ZY|/(2t) = |Im ZY|·t/(|Re| + m), so one
-            // division 1/((|Re| + m)·m) serves both it and 1/m, and runs beside
-            // the second square root. The squares cannot overflow inside these bounds.
-            let m = (p.re * p.re + p.im * p.im).sqrt();
-            let s = p.re.abs() + m;
-            let t = (T::half() * s).sqrt();
-            let inv = T::one() / (s * m);
-            let small = p.im.abs() * t * (m * inv);
-            let inv_m = s * inv;
-            let gamma = if p.re >= T::zero() {
-                Cx::new(
-                    t,
-                    if p.im.is_sign_negative() {
-                        -small
-                    } else {
-                        small
-                    },
-                )
-            } else {
-                Cx::new(small, if p.im.is_sign_negative() { -t } else { t })
-            };
-            let zc = z * gamma.conj();
-            LinePoint {
+        let mut point = match self.gamma_zc_fast(z, y) {
+            Some((gamma, zc)) => LinePoint {
                 freq_hz: f,
                 z_ohm_per_m: z,
                 y_s_per_m: y,
                 gamma_per_m: gamma,
-                zc_ohm: Impedance::from_complex(Cx::new(zc.re * inv_m, zc.im * inv_m)),
+                zc_ohm: Impedance::from_complex(zc),
                 model_loss_split_np_per_m: None,
                 warnings: Warnings::NONE,
-            }
-        } else {
-            LinePoint::from_zy(f, z, y, self.zc_dc)?
+            },
+            None => LinePoint::from_zy(f, z, y, self.zc_dc)?,
         };
         let mut w = self.base_warnings;
         let tenth = T::lit(0.1);
@@ -342,6 +360,44 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         }
         point.warnings = w;
         Ok(point)
+    }
+
+    /// As [`LineModel::at`] without warnings, one call per block.
+    fn propagation_into(
+        &self,
+        freqs_hz: &[T],
+        gamma_per_m: &mut [Cx<T>],
+        zc_ohm: &mut [Impedance<T>],
+    ) -> Result<()> {
+        if gamma_per_m.len() < freqs_hz.len() || zc_ohm.len() < freqs_hz.len() {
+            return Err(Error::LengthMismatch("gamma_per_m"));
+        }
+        for ((f, g), zc_o) in freqs_hz
+            .iter()
+            .zip(gamma_per_m.iter_mut())
+            .zip(zc_ohm.iter_mut())
+        {
+            let f = *f;
+            if !(f >= T::zero() && f <= T::max_value()) {
+                error::non_negative(f, "freq_hz")?;
+            }
+            let z = self.z_of(f);
+            let y = self.y_of(f);
+            (*g, *zc_o) = match self.gamma_zc_fast(z, y) {
+                // As `Impedance::from_complex`, by float comparisons.
+                Some((gamma, zc))
+                    if zc.re.abs() <= T::max_value() && zc.im.abs() <= T::max_value() =>
+                {
+                    (gamma, Impedance::Finite(zc))
+                }
+                Some((gamma, _)) => (gamma, Impedance::Open),
+                None => {
+                    let p = LinePoint::from_zy(f, z, y, self.zc_dc)?;
+                    (p.gamma_per_m, p.zc_ohm)
+                }
+            };
+        }
+        Ok(())
     }
 }
 
@@ -454,6 +510,75 @@ mod tests {
         assert_eq!(
             Rlgc::<f64>::builder_from_c(250e-9, f64::NAN, d).build(),
             Err(Error::NonFinite("c_f_per_m"))
+        );
+    }
+
+    /// The block call gives exactly `at`'s γ and Zc (same code path), for a
+    /// constant line, a skin-effect line with a lossy dielectric, and DC.
+    fn block_equals_at<T: Real>() {
+        let cu = Metal::<T>::copper();
+        let d = Dielectric::constant(T::lit(2.25), T::lit(2e-4)).unwrap();
+        let lines = [
+            Rlgc::<T>::constant(T::lit(0.5), T::lit(250e-9), T::lit(1e-5), T::lit(100e-12))
+                .unwrap(),
+            Rlgc::<T>::constant(T::zero(), T::lit(250e-9), T::zero(), T::lit(100e-12)).unwrap(),
+            Rlgc::builder(T::lit(2e-7), T::lit(5e-11))
+                .dielectric(d)
+                .conductor(Conductor::round_wire(cu, T::lit(0.5e-3)).unwrap())
+                .build()
+                .unwrap(),
+        ];
+        let freqs = [
+            T::zero(),
+            T::lit(10.0),
+            T::lit(1e6),
+            T::lit(3e8),
+            T::lit(1e10),
+        ];
+        for line in &lines {
+            let mut g = [Cx::new(T::zero(), T::zero()); 6];
+            let mut z = [Impedance::Open; 6];
+            line.propagation_into(&freqs, &mut g, &mut z).unwrap();
+            for ((f, g), z) in freqs.iter().zip(g.iter()).zip(z.iter()) {
+                let p = line.at(*f).unwrap();
+                assert_eq!(*g, p.gamma_per_m);
+                assert_eq!(*z, p.zc_ohm);
+            }
+            assert_eq!(
+                line.propagation_into(&freqs, &mut g[..4], &mut z),
+                Err(Error::LengthMismatch("gamma_per_m"))
+            );
+            assert_eq!(
+                line.propagation_into(&[T::one(), -T::one()], &mut g, &mut z),
+                Err(Error::Negative("freq_hz"))
+            );
+            assert_eq!(
+                line.propagation_into(&[T::nan()], &mut g, &mut z),
+                Err(Error::NonFinite("freq_hz"))
+            );
+        }
+    }
+
+    #[test]
+    fn propagation_block_equals_at() {
+        block_equals_at::<f64>();
+        block_equals_at::<f32>();
+    }
+
+    #[test]
+    fn default_propagation_block_equals_at() {
+        let ll = Lossless::<f32>::new(75.0, 0.66).unwrap();
+        let freqs = [0.0f32, 1e6, 1e9];
+        let mut g = [Cx::new(0.0, 0.0); 3];
+        let mut z = [Impedance::Open; 3];
+        ll.propagation_into(&freqs, &mut g, &mut z).unwrap();
+        for ((f, g), z) in freqs.iter().zip(g.iter()).zip(z.iter()) {
+            let p = ll.at(*f).unwrap();
+            assert_eq!((*g, *z), (p.gamma_per_m, p.zc_ohm));
+        }
+        assert_eq!(
+            ll.propagation_into(&freqs, &mut g[..1], &mut z),
+            Err(Error::LengthMismatch("gamma_per_m"))
         );
     }
 

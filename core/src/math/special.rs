@@ -77,6 +77,21 @@ impl LibmSpecial for f64 {
     }
 }
 
+/// The nearest integer to `x` (ties to even), without a library call: for
+/// |x| < 2^(p−3) (p the significand bits) x + 1.5·2^(p−1) rounds x to an
+/// integer in the FPU's round-to-nearest mode and the subtraction is exact;
+/// larger |x| are integers already. NaN stays NaN. (`round` is a software
+/// routine on targets without a rounding instruction, e.g. baseline x86-64.)
+#[inline(always)]
+fn round_near<T: Real>(x: T) -> T {
+    let c = T::lit(1.5) / T::EPS; // 1.5·2^(p−1)
+    if x.abs() < T::lit(0.25) / T::EPS {
+        (x + c) - c
+    } else {
+        x
+    }
+}
+
 /// sin(2π·t) and cos(2π·t) for a phase t in turns, in the scalar's own precision.
 ///
 /// `libm`'s `sinf`/`cosf` (musl's design) evaluate their kernels in double
@@ -86,9 +101,9 @@ impl LibmSpecial for f64 {
 /// of sin and cos to θ¹⁷ and θ¹⁸ in `f64` (truncation < 10⁻¹⁹), to θ⁹ and θ¹⁰
 /// in `f32` (truncation < 2·10⁻⁹), are summed by Horner's rule. Error: about 1 ulp of 1 in either precision. Non-finite t gives NaN.
 pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
-    let r = turns - turns.round(); // [−½, ½], exact
+    let r = turns - round_near(turns); // [−½, ½], exact
     let u = r * T::lit(4.0); // exact
-    let k = u.round();
+    let k = round_near(u);
     let f = u - k; // [−½, ½], exact
     let th = f * T::FRAC_PI_2();
     let z = th * th;
@@ -132,11 +147,15 @@ pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
     };
     let s = th - th * z * p;
     let c = T::one() - z * q;
-    match (k.to_i64_sat()).rem_euclid(4) {
-        0 => (s, c),
-        1 => (c, -s),
-        2 => (-s, -c),
-        _ => (-c, s),
+    // Quadrant k ∈ {−2, −1, 0, 1, 2} (k mod 4 = 0: (s, c), 1: (c, −s),
+    // 2: (−s, −c), 3: (−c, s)), by selects rather than an integer match: no
+    // float-to-integer conversion and no branch on the phase.
+    let ka = k.abs();
+    let (a, b) = if ka == T::one() { (c, -s) } else { (s, c) };
+    if k == -T::one() || ka == T::two() {
+        (-a, -b)
+    } else {
+        (a, b)
     }
 }
 
