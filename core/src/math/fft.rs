@@ -129,19 +129,26 @@ fn stages_table<T: Real, const INV: bool>(data: &mut [Cx<T>], table: &[Cx<T>]) {
         let s1 = table_n / (2 * h); // stride of the size-2h stage
         let s2 = table_n / (4 * h); // stride of the size-4h stage
         for block in data.chunks_exact_mut(4 * h) {
-            let (ab, cd) = block.split_at_mut(2 * h);
-            let (qa, qb) = ab.split_at_mut(h);
-            let (qc, qd) = cd.split_at_mut(h);
-            let tw = table.iter().step_by(s1).zip(table.iter().step_by(s2));
-            for ((((a, b), c), d), (w1, w2)) in qa
+            // Checked splits and indexed twiddles: no panic branch can remain
+            // (the firmware image links this under the no-panic proof).
+            let Some((ab, cd)) = block.split_at_mut_checked(2 * h) else {
+                break;
+            };
+            let Some((qa, qb)) = ab.split_at_mut_checked(h) else {
+                break;
+            };
+            let Some((qc, qd)) = cd.split_at_mut_checked(h) else {
+                break;
+            };
+            for (k, (((a, b), c), d)) in qa
                 .iter_mut()
                 .zip(qb.iter_mut())
                 .zip(qc.iter_mut())
                 .zip(qd.iter_mut())
-                .zip(tw)
+                .enumerate()
             {
-                let w1 = conj_if::<T, INV>(*w1);
-                let w2 = conj_if::<T, INV>(*w2);
+                let w1 = conj_if::<T, INV>(table.get(k * s1).copied().unwrap_or_default());
+                let w2 = conj_if::<T, INV>(table.get(k * s2).copied().unwrap_or_default());
                 // Stage of size 2h: (a, b) and (c, d) with twiddle w1.
                 let tb = *b * w1;
                 let td = *d * w1;

@@ -221,11 +221,17 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                 error::non_negative(*f, "freqs_hz")?;
             }
         }
-        for (fs, os) in freqs_hz
-            .chunks(SWEEP_BLOCK)
-            .zip(out.chunks_mut(SWEEP_BLOCK))
-        {
+        // Blocks by checked sub-slices (not `chunks().zip()`, whose length
+        // computation keeps a division-by-zero panic branch at opt-level z,
+        // which the firmware's no-panic proof rejects).
+        let mut start = 0;
+        while start < freqs_hz.len() {
+            let end = freqs_hz.len().min(start + SWEEP_BLOCK);
+            let (Some(fs), Some(os)) = (freqs_hz.get(start..end), out.get_mut(start..end)) else {
+                break;
+            };
             self.walk_block::<SWEEP_BLOCK>(fs, load, os)?;
+            start = end;
         }
         Ok(())
     }

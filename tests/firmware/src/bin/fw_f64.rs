@@ -19,7 +19,13 @@ fn panic(_: &core::panic::PanicInfo) -> ! {
 use panic_never as _;
 
 /// Report keys of the per-phase stack figures (same order as `path::PHASES`).
-const STACK_KEYS: [&str; 3] = ["stack.line", "stack.sweep", "stack.trace"];
+const STACK_KEYS: [&str; 5] = [
+    "stack.line",
+    "stack.datasheet",
+    "stack.sweep",
+    "stack.trace",
+    "stack.dtf",
+];
 
 /// Runs one phase in a frame of its own, below the painted stack top (never
 /// inlined into `main`, whose frame is not measured).
