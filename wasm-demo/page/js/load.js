@@ -12,8 +12,9 @@ const ECHOLINE_MODULE = (() => {
   for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
   // Stored gzip-compressed by the build (tools/inline.mjs); inflated here
   // by the browser itself, no network involved.
-  const inflated = new Response(new Blob([bytes]).stream().pipeThrough(new DecompressionStream('gzip')));
-  return inflated.arrayBuffer().then((buf) => WebAssembly.compile(buf));
+  // Compiled as it inflates (streaming compilation needs the wasm MIME type).
+  const inflated = new Blob([bytes]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return WebAssembly.compileStreaming(new Response(inflated, { headers: { 'Content-Type': 'application/wasm' } }));
 })();
 // Keep an early failure from being reported as unhandled; main.js shows it.
 ECHOLINE_MODULE.catch(() => {});

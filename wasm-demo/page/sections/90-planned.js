@@ -4,7 +4,6 @@
 'use strict';
 for (const [id, order, title, planned] of [
   ['sweep', 40, 'Sweep analysis', 'Load a frequency sweep: return loss and distance to each reflection from the sweep.'],
-  ['termination', 50, 'Termination', 'A line ending in a load: input impedance, reflection coefficient, VSWR and return loss, with plots against frequency and a Smith chart.'],
   ['simulation', 60, 'Simulation', 'Build a cable run with faults and see the trace an instrument would record.'],
 ]) {
   Echo.section({ id, order, title, planned });
