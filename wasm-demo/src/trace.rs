@@ -709,6 +709,12 @@ pub fn demo_csv(baseline: bool) -> core::result::Result<String, JsError> {
     Ok(to_csv(&t))
 }
 
+/// `trace_csv(file)`: a trace as `time_s,volts` CSV text.
+#[wasm_bindgen]
+pub fn trace_csv(file: &TraceFile) -> String {
+    to_csv(file)
+}
+
 /// A trace as `time_s,volts` CSV.
 pub fn to_csv(t: &TraceFile) -> String {
     use core::fmt::Write;

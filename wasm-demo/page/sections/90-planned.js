@@ -4,7 +4,6 @@
 'use strict';
 for (const [id, order, title, planned] of [
   ['sweep', 40, 'Sweep analysis', 'Load a frequency sweep: return loss and distance to each reflection from the sweep.'],
-  ['simulation', 60, 'Simulation', 'Build a cable run with faults and see the trace an instrument would record.'],
 ]) {
   Echo.section({ id, order, title, planned });
 }
