@@ -273,6 +273,9 @@ const Echo = (() => {
     }
     if (later.childElementCount) main.append(later);
     controls();
+    // Plots are drawn at the width their card has; the first cards were drawn
+    // before the later ones shared the row with them: draw again once all are in.
+    setTimeout(runAll, 0);
     const v = document.getElementById('version');
     if (v) v.textContent = `Core bindings ${core.version()}.`;
   }

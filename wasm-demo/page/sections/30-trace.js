@@ -93,6 +93,13 @@
           if (p) o.textContent = `${p.description} (VF ${Fmt.sig(p.lo, 2)}–${Fmt.sig(p.hi, 2)})`;
         }
       } catch (_) { /* labels stay plain */ }
+      // The factor and tolerance fields matter only for "velocity factor ± tolerance".
+      const vby = card.querySelector('#trace-vby');
+      const show = () => {
+        for (const k of ['vf', 'tol']) document.getElementById(`trace-${k}`).closest('.field').hidden = vby.value !== 'factor';
+      };
+      vby.addEventListener('change', show);
+      show();
       const h = Echo.h;
       const pick = (id, label, which) => {
         const input = h('input', { type: 'file', id, accept: '.csv,text/csv,text/plain', class: 'visually-hidden' });
