@@ -107,6 +107,23 @@ test('series R–L–C at resonance reads R', async () => {
   close(Number(await data('gamma')), 1 / 3, 1e-9, '|Γ| through the RLGC line');
 });
 
+test('copper coax from its diameters, matched by its ideal Z0', async () => {
+  // Z0 = η0/(2π√εr)·ln(D/d) (Pozar, Microwave Engineering, 4th ed., 2012, §2.2),
+  // η0 = 376.730 Ω: 0.91/2.95 mm in PE (εr 2.25) is 47.0 Ω.
+  const z0 = (376.730313412 / (2 * Math.PI * 1.5)) * Math.log(2.95 / 0.91);
+  await set({ load: 'r', r: `${z0} ohm`, line: 'coax', cd: '0.91 mm', cD: '2.95 mm', er: '2.25', td: '0.0002', len: '5 m', zref: `${z0} ohm`, fr: '100 MHz' });
+  assert.ok(Number(await data('gamma')) < 0.01, `|Γ| ${await data('gamma')}`);
+  // A short at the end of 5 m of lossy coax returns less than all, |Γ| =
+  // e^(−2αl); about 0.1–0.2 dB/m at 100 MHz for this size (value from memory).
+  await set({ load: 'short' });
+  const g = Number(await data('gamma'));
+  assert.ok(g > 0.8 && g < 1, `|Γ| ${g}`);
+  assert.notEqual((await page.locator('#termination [data-key="vswr"]').textContent()).trim(), '∞ (all reflected)');
+  await page.fill('#termination-cd', '3 mm');
+  assert.match(await page.locator('#termination-cd-error').textContent(), /^Inner conductor diameter d is outside its valid range/);
+  await set({ cd: '0.91 mm', line: 'lossless', load: 'r', r: '100 ohm', zref: '50 ohm' });
+});
+
 test('a bad entry is marked in place; the last figures stay', async () => {
   const before = await data('zin');
   await page.fill('#termination-n', '0');

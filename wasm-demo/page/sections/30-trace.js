@@ -136,6 +136,8 @@
     },
     compute(v, core, ctx) {
       const vby = v.vby;
+      for (const id of ['trace-export-csv', 'trace-export-json']) document.getElementById(id).disabled = !st.trace;
+      document.getElementById('trace-clear-base').disabled = !st.baseline;
       if (!st.trace) {
         st.json = null;
         return { rows: [{ key: 'state', label: 'Trace', text: 'none loaded', note: true }], plot: null };

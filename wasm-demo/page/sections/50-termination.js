@@ -12,7 +12,7 @@
 
   function call(core, v, f0, f1, n) {
     return JSON.parse(core.termination(v.load, v.r, v.x, v.l, v.c, v.use_r, v.use_l, v.use_c, v.line,
-      v.z0, v.vf, v.rl, v.ll, v.gl, v.cl, v.len, v.zref, f0, f1, n));
+      v.z0, v.vf, v.rl, v.ll, v.gl, v.cl, v.cd, v.cD, v.er, v.td, v.len, v.zref, f0, f1, n));
   }
 
   Echo.section({
@@ -32,13 +32,17 @@
       { key: 'use_l', label: 'R–L–C: include L', type: 'check', value: true },
       { key: 'use_c', label: 'R–L–C: include C', type: 'check', value: true },
       { key: 'line', label: 'Line model', type: 'choice', value: 'lossless',
-        options: [['lossless', 'lossless: Z0 and velocity factor'], ['rlgc', 'R, L, G, C per metre (constant)']] },
+        options: [['lossless', 'lossless: Z0 and velocity factor'], ['rlgc', 'R, L, G, C per metre (constant)'], ['coax', 'copper coax from its diameters']] },
       { key: 'z0', label: 'Z0 (lossless)', unit: 'resistance', value: '50 Ω', param: 'z0_ohm' },
       { key: 'vf', label: 'Velocity factor (lossless)', unit: 'number', value: '0.66', param: 'velocity_factor' },
       { key: 'rl', label: 'R per metre', unit: 'resistance', value: '0.05 Ω', param: 'r_ohm_per_m' },
       { key: 'll', label: 'L per metre', unit: 'inductance', value: '250 nH', param: 'l_h_per_m' },
       { key: 'gl', label: 'G per metre', unit: 'conductance', value: '0 S', param: 'g_s_per_m' },
       { key: 'cl', label: 'C per metre', unit: 'capacitance', value: '100 pF', param: 'c_f_per_m' },
+      { key: 'cd', label: 'Inner conductor diameter d', unit: 'length', value: '0.91 mm', param: 'inner_diameter_m' },
+      { key: 'cD', label: 'Dielectric outer diameter D', unit: 'length', value: '2.95 mm', param: 'outer_diameter_m' },
+      { key: 'er', label: 'Dielectric εr', unit: 'number', value: '2.25', param: 'eps_r' },
+      { key: 'td', label: 'Dielectric tanδ', unit: 'number', value: '0.0002', param: 'tan_delta' },
       { key: 'len', label: 'Line length', unit: 'length', value: '2 m', param: 'length_m' },
       { key: 'zref', label: 'Reference impedance (instrument)', unit: 'resistance', value: '50 Ω', param: 'z_ref_ohm' },
       { key: 'f0', label: 'From', unit: 'frequency', value: '1 MHz', param: 'f_start_hz' },
@@ -53,7 +57,8 @@
         const line = document.getElementById('termination-line').value;
         const rlc = load === 'series' || load === 'parallel';
         const vis = { r: ['r', 'rx'].includes(load) || rlc, x: load === 'rx', l: rlc, c: rlc, use_r: rlc, use_l: rlc, use_c: rlc,
-          z0: line === 'lossless', vf: line === 'lossless', rl: line === 'rlgc', ll: line === 'rlgc', gl: line === 'rlgc', cl: line === 'rlgc' };
+          z0: line === 'lossless', vf: line === 'lossless', rl: line === 'rlgc', ll: line === 'rlgc', gl: line === 'rlgc', cl: line === 'rlgc',
+          cd: line === 'coax', cD: line === 'coax', er: line === 'coax', td: line === 'coax' };
         for (const [k, on] of Object.entries(vis)) document.getElementById(`termination-${k}`).closest('.field').hidden = !on;
       };
       card.querySelector('#termination-load').addEventListener('change', show);
