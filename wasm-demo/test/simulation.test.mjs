@@ -4,6 +4,7 @@
 // simulated trace to the trace analysis.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { open, assertQuiet, artifacts, close, C0 } from './harness.mjs';
 
@@ -12,9 +13,13 @@ let page;
 before(async () => { s = await open(); page = s.page; });
 after(async () => { await s?.browser.close(); });
 
-const ROWS_KEY = 'echoline.page.simulation.rows.v1';
+// The rows live among the page's saved inputs (localStorage 'echoline.page.v1').
 async function setRows(rows) {
-  await page.evaluate(([k, r]) => localStorage.setItem(k, JSON.stringify(r)), [ROWS_KEY, rows]);
+  await page.evaluate((r) => {
+    const s = JSON.parse(localStorage.getItem('echoline.page.v1') || '{"format":"echoline-page-inputs","version":1,"inputs":{}}');
+    s.inputs.simulation = { ...(s.inputs.simulation || {}), rows: JSON.stringify(r) };
+    localStorage.setItem('echoline.page.v1', JSON.stringify(s));
+  }, rows);
   await page.reload();
   await page.waitForSelector('#simulation [data-key="samples"]');
 }
@@ -72,10 +77,22 @@ test('the row editor: add, change kind, remove; a shunt C is found and sized', a
   await page.click('button[aria-label="Remove row 2"]');
   ev = await found();
   assert.deepEqual(ev.map((e) => e.kind), ['OpenEnd']);
-  // Rows persist across a reload.
+  // Rows persist across a reload, and travel in the exported inputs file.
   await page.reload();
   await page.waitForSelector('#simulation [data-key="samples"]');
   assert.equal(await page.inputValue('#sim-row2-len'), '20 m');
+  const [download] = await Promise.all([page.waitForEvent('download'), page.click('#export')]);
+  const saved = JSON.parse(readFileSync(await download.path(), 'utf8'));
+  const rows = JSON.parse(saved.inputs.simulation.rows);
+  assert.deepEqual(rows.map((r) => r.kind), ['section', 'section']);
+  rows[1].len = '25 m';
+  saved.inputs.simulation.rows = JSON.stringify(rows);
+  const file = join(artifacts, 'inputs-simulation.json');
+  writeFileSync(file, JSON.stringify(saved));
+  await page.setInputFiles('#import', file);
+  await page.waitForFunction(() => document.querySelector('#sim-row2-len')?.value === '25 m');
+  ev = await found();
+  assert.ok(ev[0].lo <= 55 && 55 <= ev[0].hi, 'open end at 30 + 25 m after the import');
   await page.locator('#simulation').screenshot({ path: join(artifacts, 'section-simulation-rows.png') });
 });
 

@@ -280,5 +280,8 @@ const Echo = (() => {
     if (v) v.textContent = `Core bindings ${core.version()}.`;
   }
 
-  return { section, start, h, ctx, message, shared: {} };
+  /** A section's saved inputs (strings and booleans), persisted and exported with the rest. */
+  function stateOf(id) { return (state.inputs[id] ||= {}); }
+
+  return { section, start, h, ctx, message, stateOf, save, shared: {} };
 })();

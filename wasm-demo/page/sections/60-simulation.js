@@ -4,7 +4,6 @@
 // and an overlay on the trace loaded in "Trace analysis" to test a hypothesis.
 'use strict';
 (() => {
-  const ROWS_KEY = 'echoline.page.simulation.rows.v1';
   // kind: [label, fields [key, label, unit, default]]
   const KINDS = {
     section: ['line section', [['len', 'length', 'length', '10 m'], ['z0', 'Z0', 'resistance', '50 Ω'], ['vf', 'VF', 'number', '0.66']]],
@@ -26,11 +25,14 @@
   let api = null;
   let sim = null; // the last simulated TraceFile (core memory)
 
+  // The rows are kept as JSON text among the section's saved inputs, so they
+  // persist and travel with "Save inputs…" / "Load inputs…".
+  let rendered = null;
   function loadRows() {
     try {
-      const r = JSON.parse(localStorage.getItem(ROWS_KEY) || 'null');
+      const r = JSON.parse(Echo.stateOf('simulation').rows || 'null');
       if (Array.isArray(r) && r.every((x) => x && KINDS[x.kind])) return r;
-    } catch (_) { /* storage off or bad */ }
+    } catch (_) { /* bad saved text: the default rows */ }
     return DEFAULT_ROWS.map((x) => ({ ...x }));
   }
   function rowsNow() {
@@ -40,7 +42,11 @@
       return r;
     });
   }
-  function saveRows() { try { localStorage.setItem(ROWS_KEY, JSON.stringify(rowsNow())); } catch (_) { /* ignore */ } }
+  function saveRows() {
+    rendered = JSON.stringify(rowsNow());
+    Echo.stateOf('simulation').rows = rendered;
+    Echo.save();
+  }
 
   function renderRows(rows) {
     const h = Echo.h;
@@ -99,6 +105,7 @@
       a.parts.form.prepend(box);
       a.parts.results.append(h('div', { class: 'file-tools no-print' }, toTrace));
       renderRows(loadRows());
+      rendered = Echo.stateOf('simulation').rows || null;
       const show = () => { document.getElementById('simulation-end_r').closest('.field').hidden = document.getElementById('simulation-end').value !== 'r'; };
       card.querySelector('#simulation-end').addEventListener('change', show);
       show();
@@ -106,6 +113,9 @@
       document.addEventListener('echoline:trace', () => api.rerun());
     },
     compute(v, core, ctx) {
+      // Inputs loaded from a file may carry other rows.
+      const saved = Echo.stateOf('simulation').rows;
+      if (saved && saved !== rendered) { renderRows(loadRows()); rendered = saved; }
       const rows = rowsNow();
       const kind = [], A = [], B = [], C = [];
       for (const li of list.querySelectorAll('.simrow input')) li.classList.remove('bad');
