@@ -878,23 +878,4 @@ mod tests {
             .map(|x| x.parse().unwrap())
             .collect()
     }
-
-    #[test]
-    #[ignore]
-    fn print_demo() {
-        let v = velocity("solid-pe", 0.0, 0.0).unwrap();
-        let t = TraceFile::from_samples(
-            sim::compute(&demo_rows(true), End::Open, &demo_instrument(11)).unwrap(),
-            0.0,
-            1e-9,
-        )
-        .unwrap();
-        let b = TraceFile::from_samples(
-            sim::compute(&demo_rows(false), End::Open, &demo_instrument(7)).unwrap(),
-            0.0,
-            1e-9,
-        )
-        .unwrap();
-        println!("{}", analyse(&t, Some(&b), v, 50.0).unwrap().json());
-    }
 }

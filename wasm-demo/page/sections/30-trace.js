@@ -39,6 +39,8 @@
       const text = await Files.read(file);
       await new Promise((r) => setTimeout(r, 0)); // let the message paint
       const handle = st.core.parse_trace_csv(text, intervalField());
+      say(`Analysing ${file.name} (${handle.len.toLocaleString('en')} samples)…`);
+      await new Promise((r) => setTimeout(r, 0)); // parse and analysis in separate tasks
       setTrace(which, handle, file.name);
       say(`Loaded ${file.name} as the ${kinds[which]}: ${handle.len.toLocaleString('en')} samples.`);
     } catch (e) {
