@@ -21,6 +21,6 @@ step "build the single file"
 bash build.sh
 
 step "browser test (headless, offline, file://)"
-node --test test/
+node --test --test-concurrency=1 test/
 
 step "done"

@@ -13,7 +13,11 @@
 use wasm_bindgen::prelude::*;
 
 pub mod fault;
+pub mod json;
 pub mod line;
+pub mod sim;
+pub mod termination;
+pub mod trace;
 pub mod units;
 
 /// The core's error as a JS `Error` with a readable message.

@@ -263,7 +263,7 @@ test('keyboard, themes, planned sections and print', async () => {
   await page.screenshot({ path: join(artifacts, 'page-dark.png') });
   await page.locator('.planned-group').screenshot({ path: join(artifacts, 'section-planned.png') });
   await page.click('#theme'); // dark → auto
-  assert.equal(await page.locator('.card.planned').count(), 4);
+  assert.equal(await page.locator('.card.planned').count(), 1);
   await page.emulateMedia({ media: 'print' });
   assert.ok(await page.locator('#caution').isVisible(), 'caution in the printed report');
   assert.ok(!(await page.locator('.tools').isVisible()), 'controls not printed');

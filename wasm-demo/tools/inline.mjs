@@ -5,6 +5,7 @@
 // usage: node tools/inline.mjs <glue.js> <module.wasm> <out.html>
 import { readFileSync, writeFileSync, readdirSync, mkdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
+import { gzipSync } from 'node:zlib';
 import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -25,17 +26,20 @@ const scripts = [
   'js/format.js',
   'js/plot.js',
   'js/app.js',
+  'js/files.js',
   ...sections.map((f) => `sections/${f}`),
   'js/main.js',
 ];
 
 const template = read(join(page, 'index.html'));
 const css = read(join(page, 'style.css'));
-const b64 = readFileSync(wasm).toString('base64');
+// The wasm is stored gzip-compressed (page/js/load.js inflates it with the
+// browser's DecompressionStream): about half the bytes of plain base64.
+const b64 = gzipSync(readFileSync(wasm), { level: 9 }).toString('base64');
 const script = (s) => `<script>\n// ${s}\n${safe(read(join(page, s)))}\n</script>`;
 // In <head>: the wasm as base64 and js/load.js, which starts compiling it.
 const early = [
-  `<script type="application/octet-stream" id="core-wasm">${b64}</script>`,
+  `<script type="application/octet-stream" id="core-wasm" data-encoding="gzip">${b64}</script>`,
   script('js/load.js'),
 ];
 // At the end of <body>: the wasm-bindgen glue, then the page scripts.
@@ -50,4 +54,4 @@ const html = template
 mkdirSync(dirname(out), { recursive: true });
 writeFileSync(out, html);
 const kb = (n) => `${(n / 1024).toFixed(1)} KB`;
-console.log(`${out}: ${kb(Buffer.byteLength(html))} (wasm ${kb(readFileSync(wasm).length)}, base64 ${kb(b64.length)})`);
+console.log(`${out}: ${kb(Buffer.byteLength(html))} (wasm ${kb(readFileSync(wasm).length)}, gzip+base64 ${kb(b64.length)})`);

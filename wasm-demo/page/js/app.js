@@ -10,6 +10,8 @@
 //   compute(values, core, ctx) -> { rows: [{ key, label, text, value, data, main, note }], plot? }
 //            value (and data: {name: number}) go into data-* attributes for tests
 //   draw(host, result, ctx)  optional, draws result.plot into the section's plot area
+//   setup(card, api)         optional, once after building: extra controls (files,
+//            buttons); api.rerun() recomputes the section, api.parts its elements
 //   planned: 'what it will do'  instead of inputs/compute: a place kept for later
 'use strict';
 const Echo = (() => {
@@ -89,7 +91,7 @@ const Echo = (() => {
 
   function build(spec, main, nav, later) {
     const title = h('h2', { id: `${spec.id}-title`, text: spec.title });
-    const card = h('section', { class: 'card', id: spec.id, 'aria-labelledby': `${spec.id}-title` }, title);
+    const card = h('section', { class: `card${spec.wide ? ' wide' : ''}`, id: spec.id, 'aria-labelledby': `${spec.id}-title` }, title);
     nav.append(h('li', {}, h('a', { href: `#${spec.id}`, class: spec.planned ? 'later' : null, text: spec.title })));
     if (spec.planned) {
       card.classList.add('planned');
@@ -116,6 +118,7 @@ const Echo = (() => {
     card.append(h('div', { class: 'body' }, form, results));
     main.append(card);
     ui.set(spec.id, { fields, status, rows, plot, results });
+    if (spec.setup) spec.setup(card, { rerun: () => run(spec), save, parts: { form, status, rows, plot, results }, core });
   }
 
   // ---- computing ---------------------------------------------------------
@@ -270,9 +273,15 @@ const Echo = (() => {
     }
     if (later.childElementCount) main.append(later);
     controls();
+    // Plots are drawn at the width their card has; the first cards were drawn
+    // before the later ones shared the row with them: draw again once all are in.
+    setTimeout(runAll, 0);
     const v = document.getElementById('version');
     if (v) v.textContent = `Core bindings ${core.version()}.`;
   }
 
-  return { section, start, h };
+  /** A section's saved inputs (strings and booleans), persisted and exported with the rest. */
+  function stateOf(id) { return (state.inputs[id] ||= {}); }
+
+  return { section, start, h, ctx, message, stateOf, save, shared: {} };
 })();

@@ -1,5 +1,5 @@
 // Boot, first half. Inlined at the top of <head>, right after the base64 wasm,
-// so the module compiles (asynchronously, off the main thread) while the rest
+// so the module inflates and compiles (asynchronously, off the main thread) while the rest
 // of the page is parsed. No fetch, no module scripts: the file opens from
 // file:// with no network. main.js hands the compiled module to the
 // wasm-bindgen glue.
@@ -10,7 +10,11 @@ const ECHOLINE_MODULE = (() => {
   const bin = atob(b64);
   const bytes = new Uint8Array(bin.length);
   for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
-  return WebAssembly.compile(bytes);
+  // Stored gzip-compressed by the build (tools/inline.mjs); inflated here
+  // by the browser itself, no network involved.
+  // Compiled as it inflates (streaming compilation needs the wasm MIME type).
+  const inflated = new Blob([bytes]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return WebAssembly.compileStreaming(new Response(inflated, { headers: { 'Content-Type': 'application/wasm' } }));
 })();
 // Keep an early failure from being reported as unhandled; main.js shows it.
 ECHOLINE_MODULE.catch(() => {});

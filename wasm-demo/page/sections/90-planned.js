@@ -3,10 +3,7 @@
 // its core API lands; delete its line here then.
 'use strict';
 for (const [id, order, title, planned] of [
-  ['trace', 30, 'Trace analysis', 'Load a recorded reflection trace: noise floor, reflections found and classified (open, short, splice, water), impedance along the cable.'],
   ['sweep', 40, 'Sweep analysis', 'Load a frequency sweep: return loss and distance to each reflection from the sweep.'],
-  ['termination', 50, 'Termination', 'A line ending in a load: input impedance, reflection coefficient, VSWR and return loss, with plots against frequency and a Smith chart.'],
-  ['simulation', 60, 'Simulation', 'Build a cable run with faults and see the trace an instrument would record.'],
 ]) {
   Echo.section({ id, order, title, planned });
 }
