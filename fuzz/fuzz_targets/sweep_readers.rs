@@ -22,8 +22,14 @@ fn run<T: Real>(text: &str) {
             continue;
         };
         let (fs, gs) = (&f[..n], &g[..n]);
-        assert!(fs.iter().all(|x| x.is_finite()), "non-finite frequency from {text:?}");
-        assert!(gs.iter().all(|z| z.re.is_finite() && z.im.is_finite()), "non-finite gamma");
+        assert!(
+            fs.iter().all(|x| x.is_finite()),
+            "non-finite frequency from {text:?}"
+        );
+        assert!(
+            gs.iter().all(|z| z.re.is_finite() && z.im.is_finite()),
+            "non-finite gamma"
+        );
         let mut table = [Cx::new(T::zero(), T::zero()); 64];
         fill_twiddles(&mut table).unwrap();
         let plan = Fft::new(&table).unwrap();

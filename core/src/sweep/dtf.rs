@@ -91,8 +91,17 @@ fn check_sweep<T: Real>(freqs_hz: &[T], gamma: &[Cx<T>]) -> Result<FreqGrid<T>> 
     if !gamma.iter().all(|z| complex::is_finite(*z)) {
         return Err(Error::NonFinite("gamma"));
     }
+    // |Re|, |Im| ≤ MAX_GAMMA: no measured reflection comes near, and it keeps
+    // the transform sums finite (found by fuzzing: 1e308 overflowed to NaN).
+    let max = T::lit(MAX_GAMMA);
+    if !gamma.iter().all(|z| z.re.abs() <= max && z.im.abs() <= max) {
+        return Err(Error::OutOfRange("gamma"));
+    }
     Ok(g)
 }
+
+/// Largest accepted reflection component (|Re Γ|, |Im Γ|) of a sweep: 1e6.
+pub const MAX_GAMMA: f64 = 1e6;
 
 /// Σ wₙ over a length-n window, and a validated window.
 fn window_sum<T: Real>(w: &Window<T>, n: usize) -> Result<T> {
@@ -100,14 +109,29 @@ fn window_sum<T: Real>(w: &Window<T>, n: usize) -> Result<T> {
     for i in 0..n {
         s = s + w.value(i, n)?;
     }
-    Ok(s)
+    nonzero_window_sum(s)
+}
+
+/// A window whose samples sum to (nearly) zero — Hann over two points, or a
+/// Kaiser window with a huge β over very few — cannot normalise a transform:
+/// the sum must exceed the machine epsilon (window peaks are 1).
+fn nonzero_window_sum<T: Real>(s: T) -> Result<T> {
+    if s > T::EPS {
+        Ok(s)
+    } else {
+        Err(Error::TooShort {
+            what: "freqs_hz",
+            needed: 3,
+        })
+    }
 }
 
 /// Band-pass transform onto the FFT grid of M = `out.len()` points (a power of
 /// two ≥ N): `out[k]` is the complex reflection at distance k·range/M.
 ///
 /// Errors: the sweep checks ([`FreqGrid::from_freqs`];
-/// [`Error::LengthMismatch`]`("gamma")`; [`Error::NonFinite`]`("gamma")`);
+/// [`Error::LengthMismatch`]`("gamma")`; [`Error::NonFinite`]`("gamma")`;
+/// [`Error::OutOfRange`]`("gamma")` beyond [`MAX_GAMMA`]);
 /// [`Error::TooShort`] (`"out"`, N) when M < N; [`Error::OutOfRange`]`("len")`
 /// unless M is a power of two; [`Error::Capacity`] (`"table"`) when the plan is
 /// too small; the grid's errors.
@@ -169,7 +193,7 @@ pub fn band_pass_fft<T: Real>(
         j_hi = if j_hi == 0 { m - 1 } else { j_hi - 1 };
     }
     plan.inverse(out)?;
-    let scale = T::from_usize(m) / sw;
+    let scale = T::from_usize(m) / nonzero_window_sum(sw)?;
     if q_frac == T::zero() {
         for o in out.iter_mut() {
             *o = *o * scale;
@@ -300,7 +324,13 @@ pub fn low_pass<T: Real>(
             if fg.stop_hz() * tr < T::lit(0.35) {
                 return Err(Error::Unreachable("rise_time_s"));
             }
-            Some(tr / T::lit(2.563_103))
+            let sg = tr / T::lit(2.563_103);
+            // A rise time so long that 2π·σ·f_max overflows filters out the
+            // whole sweep: reject it rather than compute 0·∞.
+            if !(T::two_pi() * sg * fg.stop_hz()).is_finite() {
+                return Err(Error::OutOfRange("rise_time_s"));
+            }
+            Some(sg)
         }
         _ => None,
     };
@@ -348,7 +378,7 @@ pub fn low_pass<T: Real>(
     plan.inverse(w)?;
     match kind {
         LowPass::Impulse => {
-            let scale = T::from_usize(m) / s;
+            let scale = T::from_usize(m) / nonzero_window_sum(s)?;
             for (o, v) in out.iter_mut().zip(w.iter()) {
                 *o = v.re * scale;
             }
