@@ -6,7 +6,7 @@
 
 use cortex_m_semihosting::{debug, hio};
 
-use crate::path::Sink;
+use crate::path::{self, Bits, Sink};
 
 /// Writes `key hexbits\n` lines over semihosting without core::fmt.
 pub struct Semi {
@@ -111,4 +111,33 @@ pub fn exit(ok: bool) -> ! {
     loop {
         cortex_m::asm::wfi();
     }
+}
+
+/// Report keys of the per-phase stack figures (same order as `path::PHASES`).
+const STACK_KEYS: [&str; 5] = [
+    "stack.line",
+    "stack.datasheet",
+    "stack.sweep",
+    "stack.trace",
+    "stack.dtf",
+];
+
+/// Runs one phase in a frame of its own, below the painted stack top (never
+/// inlined into the caller, whose frame is not measured).
+#[inline(never)]
+fn run_phase<T: Bits>(phase: &str, out: &mut Semi) {
+    path::run_phase::<T, _>(phase, out);
+}
+
+/// The whole image: each phase with its stack painted and measured, then exit.
+pub fn firmware_main<T: Bits>() -> ! {
+    let mut out = Semi::new();
+    for (phase, key) in path::PHASES.iter().zip(STACK_KEYS) {
+        let top = paint_stack();
+        run_phase::<T>(phase, &mut out);
+        let used = stack_used(top);
+        out.put(key, used as u64);
+    }
+    let ok = !out.failed;
+    exit(ok)
 }
