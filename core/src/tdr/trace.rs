@@ -284,25 +284,22 @@ pub struct Trace<'a, T, S: ?Sized> {
 
 /// Median of a small set in place (`len ≥ 1`), without panicking.
 ///
-/// Insertion sort (O(n²); the callers pass at most 256 values), written with
-/// `get_mut` on two-element windows so that no bounds check can panic: the
-/// firmware image links it under the no-panic proof, which `core`'s
-/// `select_nth_unstable_by` does not pass. NaN sorts as equal (callers reject
-/// non-finite samples first).
+/// Heapsort (O(n log n), no recursion, no allocation), written with checked
+/// access only, so that no bounds check can panic: the firmware image links
+/// it under the no-panic proof, which `core`'s `select_nth_unstable_by` does
+/// not pass. NaN compares as not greater (callers reject non-finite samples
+/// first).
 pub(crate) fn median_in_place<T: Real>(x: &mut [T]) -> Option<T> {
     let n = x.len();
     if n == 0 {
         return None;
     }
-    for i in 1..n {
-        let mut j = i;
-        while j > 0 {
-            match x.get_mut(j - 1..=j) {
-                Some([a, b]) if *a > *b => core::mem::swap(a, b),
-                _ => break,
-            }
-            j -= 1;
-        }
+    for start in (0..n / 2).rev() {
+        sift_down(x, start, n);
+    }
+    for end in (1..n).rev() {
+        swap_checked(x, 0, end);
+        sift_down(x, 0, end);
     }
     let hi = *x.get(n / 2)?;
     if n % 2 == 1 {
@@ -310,6 +307,45 @@ pub(crate) fn median_in_place<T: Real>(x: &mut [T]) -> Option<T> {
     }
     let lo = *x.get(n / 2 - 1)?;
     Some((lo + hi) * T::half())
+}
+
+/// Swaps `x[a]` and `x[b]` (`a < b`) if both exist.
+fn swap_checked<T>(x: &mut [T], a: usize, b: usize) {
+    if let Some((lo, hi)) = x.split_at_mut_checked(b) {
+        if let (Some(p), Some(q)) = (lo.get_mut(a), hi.first_mut()) {
+            core::mem::swap(p, q);
+        }
+    }
+}
+
+/// Restores the max-heap property below `root` within `x[..end]`.
+fn sift_down<T: Real>(x: &mut [T], mut root: usize, end: usize) {
+    loop {
+        let left = 2 * root + 1;
+        if left >= end {
+            return;
+        }
+        let right = left + 1;
+        let (Some(&l), Some(&r0)) = (x.get(left), x.get(root)) else {
+            return;
+        };
+        let mut child = left;
+        let mut cv = l;
+        if right < end {
+            if let Some(&r) = x.get(right) {
+                if r > l {
+                    child = right;
+                    cv = r;
+                }
+            }
+        }
+        if cv > r0 {
+            swap_checked(x, root, child);
+            root = child;
+        } else {
+            return;
+        }
+    }
 }
 
 /// Median of samples `[from, to)` (at most 16 used), `None` if the range is empty.
@@ -768,5 +804,27 @@ mod tests {
             Trace::new(&y[..], setup).err(),
             Some(Error::OutOfRange("incident_v"))
         );
+    }
+
+    #[test]
+    fn heap_median_matches_a_full_sort() {
+        let mut state = 0x1234_5678_9abc_def1u64;
+        for n in 1..300usize {
+            let mut x = [0.0f64; 300];
+            for v in x.iter_mut().take(n) {
+                state ^= state << 13;
+                state ^= state >> 7;
+                state ^= state << 17;
+                *v = (state % 1000) as f64 - 500.0;
+            }
+            let mut sorted = x;
+            sorted[..n].sort_by(|a, b| a.partial_cmp(b).unwrap());
+            let want = if n % 2 == 1 {
+                sorted[n / 2]
+            } else {
+                (sorted[n / 2 - 1] + sorted[n / 2]) / 2.0
+            };
+            assert_eq!(median_in_place(&mut x[..n]), Some(want), "n = {n}");
+        }
     }
 }
