@@ -16,6 +16,7 @@ pub mod fault;
 pub mod json;
 pub mod line;
 pub mod sim;
+pub mod sweep;
 pub mod termination;
 pub mod trace;
 pub mod units;

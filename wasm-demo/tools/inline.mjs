@@ -18,6 +18,25 @@ if (!glue || !wasm || !out) {
 const read = (p) => readFileSync(p, 'utf8');
 // A script's text must not close its element early.
 const safe = (js) => js.replace(/<\/(script)/gi, '<\\/$1').replace(/<!--/g, '<\\!--');
+// Whole-line comments, blank lines and indentation dropped (the sources and
+// the glue have no multi-line string literals, so no text changes meaning):
+// about a sixth of the file. Line breaks stay, so automatic semicolons too.
+function compact(js) {
+  const out = [];
+  let inBlock = false;
+  for (const raw of js.split('\n')) {
+    const t = raw.trim();
+    if (inBlock) { if (t.endsWith('*/')) inBlock = false; continue; }
+    if (t.startsWith('/*')) {
+      const close = t.indexOf('*/', 2);
+      if (close === -1) { inBlock = true; continue; }
+      if (close === t.length - 2) continue;
+    }
+    if (t === '' || t.startsWith('//')) continue;
+    out.push(t);
+  }
+  return out.join('\n');
+}
 
 // After the glue: the frame, then every section file in name order, then
 // js/main.js (js/load.js goes into <head>, see below).
@@ -36,14 +55,14 @@ const css = read(join(page, 'style.css'));
 // The wasm is stored gzip-compressed (page/js/load.js inflates it with the
 // browser's DecompressionStream): about half the bytes of plain base64.
 const b64 = gzipSync(readFileSync(wasm), { level: 9 }).toString('base64');
-const script = (s) => `<script>\n// ${s}\n${safe(read(join(page, s)))}\n</script>`;
+const script = (s) => `<script>\n// ${s}\n${safe(compact(read(join(page, s))))}\n</script>`;
 // In <head>: the wasm as base64 and js/load.js, which starts compiling it.
 const early = [
   `<script type="application/octet-stream" id="core-wasm" data-encoding="gzip">${b64}</script>`,
   script('js/load.js'),
 ];
 // At the end of <body>: the wasm-bindgen glue, then the page scripts.
-const parts = [`<script>\n${safe(read(glue))}\n</script>`, ...scripts.map(script)];
+const parts = [`<script>\n${safe(compact(read(glue)))}\n</script>`, ...scripts.map(script)];
 for (const marker of ['<!--@CORE-->', '<!--@STYLES-->', '<!--@SCRIPTS-->']) {
   if (!template.includes(marker)) throw new Error(`template lacks ${marker}`);
 }
