@@ -12,6 +12,7 @@
 
 use wasm_bindgen::prelude::*;
 
+pub mod design;
 pub mod fault;
 pub mod json;
 pub mod line;

@@ -5,6 +5,16 @@
 // wasm-bindgen glue.
 'use strict';
 performance.mark('echoline:load');
+// The later page sections, stored the same way (one text,
+// NUL between scripts); js/boot.js runs them once the body is parsed.
+// Started first: they are small.
+const ECHOLINE_SCRIPTS = (() => {
+  const bin = atob(document.getElementById('page-scripts').textContent);
+  const bytes = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) bytes[i] = bin.charCodeAt(i);
+  const inflated = new Blob([bytes]).stream().pipeThrough(new DecompressionStream('gzip'));
+  return new Response(inflated).text().then((t) => t.split('\0'));
+})();
 const ECHOLINE_MODULE = (() => {
   const b64 = document.getElementById('core-wasm').textContent;
   const bin = atob(b64);
@@ -18,3 +28,4 @@ const ECHOLINE_MODULE = (() => {
 })();
 // Keep an early failure from being reported as unhandled; main.js shows it.
 ECHOLINE_MODULE.catch(() => {});
+ECHOLINE_SCRIPTS.catch(() => {});
