@@ -113,9 +113,25 @@ fn substrate(d: &Design<'_>) -> Result<Substrate<f64>> {
 }
 
 /// The model of the chosen geometry and the words for its cutoff.
-type Model = (Box<dyn LineModel<f64>>, &'static str, Option<f64>);
+pub(crate) type Model = (Box<dyn LineModel<f64>>, &'static str, Option<f64>);
 
-fn model(d: &Design<'_>) -> Result<Model> {
+pub(crate) fn model(d: &Design<'_>) -> Result<Model> {
+    // Datasheet and ideal lines have no materials to check.
+    match d.geometry {
+        "datasheet" => {
+            let mut b = DatasheetCable::builder(d.z0_ohm, d.velocity_factor)
+                .attenuation_db_per_100m(d.att[0].0, d.att[0].1);
+            if d.att[1].0 > 0.0 {
+                b = b.attenuation_db_per_100m(d.att[1].0, d.att[1].1);
+            }
+            return Ok((Box::new(b.build()?), "", None));
+        }
+        "ideal" => {
+            let l = Lossless::new(d.z0_ohm, d.velocity_factor)?;
+            return Ok((Box::new(l), "", None));
+        }
+        _ => {}
+    }
     let diel = dielectric(d)?;
     let m = metal(d)?;
     Ok(match d.geometry {
@@ -181,19 +197,6 @@ fn model(d: &Design<'_>) -> Result<Model> {
             "TE10 mode, below it nothing propagates",
             None,
         ),
-        "datasheet" => {
-            let mut b = DatasheetCable::builder(d.z0_ohm, d.velocity_factor)
-                .attenuation_db_per_100m(d.att[0].0, d.att[0].1);
-            if d.att[1].0 > 0.0 {
-                b = b.attenuation_db_per_100m(d.att[1].0, d.att[1].1);
-            }
-            (Box::new(b.build()?), "", None)
-        }
-        "ideal" => (
-            Box::new(Lossless::new(d.z0_ohm, d.velocity_factor)?),
-            "",
-            None,
-        ),
         _ => return Err(Error::OutOfRange("geometry")),
     })
 }
@@ -201,6 +204,17 @@ fn model(d: &Design<'_>) -> Result<Model> {
 /// The dimension solved for the target impedance: (what, value in m), or
 /// `None` for a geometry without one.
 fn solve(d: &Design<'_>) -> Option<(&'static str, Result<f64>)> {
+    let solvable = [
+        "coax",
+        "microstrip",
+        "stripline",
+        "cpw",
+        "two-wire",
+        "twisted-pair",
+    ];
+    if !solvable.contains(&d.geometry) {
+        return None;
+    }
     let diel = match dielectric(d) {
         Ok(x) => x,
         Err(e) => return Some(("", Err(e))),

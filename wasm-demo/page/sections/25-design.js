@@ -110,6 +110,9 @@
         for (const [from, to] of Object.entries(RENAME[g] || {})) if (msg.startsWith(`${from} `)) msg = to + msg.slice(from.length);
         throw new Error(msg);
       }
+      // The fault-distance section can take its velocity from this line.
+      Echo.shared.design = { geom: g, sub: v.sub, diel: v.diel, nums, what: document.querySelector(`#design-geom option[value="${g}"]`)?.textContent || g, freq: v.freq };
+      document.dispatchEvent(new CustomEvent('echoline:design'));
       const imperial = ctx.system === 'imperial';
       const rows = [];
       const zc = j.zc_open ? { text: 'open (∞)', value: null } : { text: Fmt.ohms(j.zc_re_ohm, j.zc_im_ohm), value: j.zc_re_ohm };
