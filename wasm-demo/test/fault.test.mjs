@@ -24,6 +24,7 @@ async function set(fields) {
 const half = (v, t) => (v * t) / 2;
 
 test('dielectric preset: its velocity range shown and used', async () => {
+  assert.ok(!(await page.locator('#fault-use-cal').isVisible()), 'calibration button only with a calibration');
   await set({ round_trip: '612 ns', by: 'foam-pe' });
   // Foamed PE: VF 0.78–0.88 (timing::presets, common practice, no single source).
   close(await val('velocity_range', 'data-vflo'), 0.78, 1e-9, 'preset VF low');
@@ -65,6 +66,7 @@ test('calibration on one known length, then kept as factor ± tolerance', async 
   close(await val('velocity', 'data-vf'), v / C0, 1e-9, 'calibrated VF');
   close(await val('distance'), half(v, 612e-9), 1e-9, 'distance with the calibrated velocity');
   await page.locator('#fault').screenshot({ path: join(artifacts, 'section-fault-calibration.png') });
+  assert.ok(await page.locator('#fault-use-cal').isVisible());
   await page.click('#fault-use-cal');
   assert.equal(await page.inputValue('#fault-by'), 'factor');
   close(Number(await page.inputValue('#fault-vf')), v / C0, 1e-5, 'VF kept');
@@ -81,7 +83,7 @@ test('calibration on two lengths removes the fixture offset', async () => {
   close(await val('velocity', 'data-vf'), 0.66, 1e-9, 'two-length VF');
   close(await val('offset'), 10e-9, 1e-6, 'fixture offset');
   close(await val('distance'), half(v, 612e-9 - 10e-9), 1e-9, 'distance after removing the offset');
-  await page.locator('#fault').screenshot({ path: join(artifacts, 'section-fault.png') });
+  await page.locator('#fault').screenshot({ path: join(artifacts, 'section-fault-two-lengths.png') });
   await set({ cal_l2: '40 m' });
   assert.match(await page.locator('#fault-cal_l2-error').textContent(), /Known length \(second cable\)/);
   await set({ cal_l2: '150 m', by: 'factor' });

@@ -31,6 +31,10 @@ const Echo = (() => {
     if (place) {
       build(spec, place.main, place.nav, place.later);
       if (!spec.planned) run(spec);
+      // Cards already drawn may have changed width: draw all again once
+      // the late ones are in.
+      clearTimeout(place.redraw);
+      place.redraw = setTimeout(runAll, 0);
     }
   }
 

@@ -61,7 +61,8 @@
       show();
       // The design section publishes its line; recompute when it changes.
       document.addEventListener('echoline:design', () => { if (document.getElementById('fault-by').value === 'model') api.rerun(); });
-      const use = Echo.h('button', { type: 'button', id: 'fault-use-cal', text: 'Keep this velocity as factor ± tolerance', hidden: true });
+      const use = Echo.h('button', { type: 'button', id: 'fault-use-cal', text: 'Use as factor ± tolerance' });
+      use.style.display = 'none';
       use.addEventListener('click', () => {
         if (!last) return;
         document.getElementById('fault-vf').value = String(Number(last.vf_nominal.toPrecision(6)));
@@ -104,7 +105,7 @@
         rows.push({ key: 'offset', label: 'Fixture offset removed', text: `${Fmt.si(r.offset_s, 's')} (${Fmt.si(r.offset_lo_s, 's')} to ${Fmt.si(r.offset_hi_s, 's')})`,
           value: r.offset_s, data: { t: r.t_used_s } });
       }
-      document.getElementById('fault-use-cal').hidden = !(v.by === 'cal1' || v.by === 'cal2');
+      document.getElementById('fault-use-cal').style.display = v.by === 'cal1' || v.by === 'cal2' ? '' : 'none';
       return { rows, plot: { best: dist.value, lo: lo.value, hi: hi.value, unit: imperial ? 'ft' : 'm' } };
     },
     draw(host, out) {
