@@ -469,6 +469,18 @@ mod tests {
             (num(&j, "cutoff_hz") / 1e9 - 19.01 * 1.0207).abs() < 0.02,
             "{j}"
         );
+        // Stripline W/b 1, t 0, in air: Cohn 1954 exact, Z·√εr = 65.354 Ω
+        // (methods.md §3 [calc]).
+        let mut st = base("stripline");
+        st.width_m = 1e-3;
+        st.height_m = 1e-3;
+        let j = compute(&st).unwrap();
+        assert!((num(&j, "zc_re_ohm") - 65.354).abs() < 5e-3, "{j}");
+        // CPW on a thick substrate, k = S/(S + 2W) = 0.5, in air: 120.568 Ω with
+        // 30π for η0/4, i.e. 120.568·η0/(120π) (Wen 1969; methods.md §4 [calc]).
+        let j = compute(&base("cpw")).unwrap();
+        let want = 120.568 * ETA0 / (120.0 * std::f64::consts::PI);
+        assert!((num(&j, "zc_re_ohm") - want).abs() < 1e-3 * want, "{j}");
         // WR-90 (22.86 mm broad wall) TE10 cutoff c0/(2a) = 6.557 GHz
         // (methods.md §5, Pozar, Microwave Engineering, value from memory).
         let j = compute(&base("waveguide")).unwrap();

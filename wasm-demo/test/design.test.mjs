@@ -68,6 +68,21 @@ test('two-wire in air, D/d 2: 157.93 Ω', async () => {
   assert.equal(await text('cutoff'), 'none in this model');
 });
 
+test('stripline and coplanar waveguide in air', async () => {
+  // Stripline W/b 1, t 0: Cohn 1954 exact Z·√εr = 65.354 Ω (methods.md §3 [calc]).
+  await set({ geom: 'stripline', w: '1 mm', b: '1 mm', t: '0 mm', er: '1', tand: '0', metal: 'perfect', freq: '1 MHz', target: '50 ohm' });
+  close(await val('zc'), 65.354, 1e-4, 'stripline Zc');
+  // CPW, thick substrate, k = S/(S + 2W) = 0.5: 120.568 Ω with 30π for η0/4
+  // (Wen 1969; methods.md §4 [calc]), i.e. 120.568·η0/(120π).
+  await set({ geom: 'cpw', sub: 'thick', s: '1 mm', slot: '0.5 mm' });
+  close(await val('zc'), (120.568 * ETA0) / (120 * Math.PI), 1e-5, 'CPW Zc');
+  // The solved slot gives the target back (line::synth inverts the model).
+  const slot = await val('solve');
+  await page.click('#design-use');
+  close(Number((await page.inputValue('#design-slot')).split(' ')[0]), slot, 1e-5, 'slot filled in');
+  close(await val('zc'), 50, 1e-4, 'CPW at the solved slot');
+});
+
 test('waveguide: TE10 cutoff and the evanescent warning below it', async () => {
   // TE10 fc = c/(2a√εr) (methods.md §5): WR-90, a = 22.86 mm → 6.557 GHz.
   await set({ geom: 'waveguide', wg_a: '22.86 mm', wg_b: '10.16 mm', er: '1', tand: '0', metal: 'copper', freq: '10 GHz' });
