@@ -4,7 +4,7 @@
 // loaded sweep (a handle to core memory) and draws.
 'use strict';
 (() => {
-  const st = { file: null, name: '', text: null, zref: null, json: null, core: null };
+  const st = { file: null, name: '', fileName: '', text: null, zref: null, json: null, core: null };
   let api = null;
   let fileMsg = null;
 
@@ -12,9 +12,9 @@
     fileMsg.textContent = text;
     fileMsg.classList.toggle('bad', !!bad);
   }
-  function setFile(handle, name, text, zref) {
+  function setFile(handle, name, text, zref, fileName = name) {
     if (st.file && st.file !== handle) st.file.free();
-    Object.assign(st, { file: handle, name: handle ? name : '', text: handle ? text : null, zref: handle ? zref : null });
+    Object.assign(st, { file: handle, name: handle ? name : '', fileName: handle ? fileName : '', text: handle ? text : null, zref: handle ? zref : null });
     api.rerun();
   }
   function zrefField() {
@@ -38,7 +38,7 @@
     const text = st.core.demo_sweep_text();
     const z = zrefField();
     const handle = st.core.parse_sweep(text, 'demo_feeder.s1p', z);
-    setFile(handle, 'demo sweep (relay-site antenna feeder)', text, z);
+    setFile(handle, 'demo sweep (relay-site antenna feeder)', text, z, 'demo_feeder.s1p');
     say(`Demo sweep loaded: an invented 35 m antenna feeder, ${handle.len} points, read by the core.`);
   }
   function peaksCsv(j) {
@@ -124,7 +124,7 @@
       }
       if (v.zref !== st.zref) {
         // The reference impedance changes Γ of a Touchstone file: read it again.
-        const again = core.parse_sweep(st.text, st.name.startsWith('demo') ? 'demo_feeder.s1p' : st.name, v.zref);
+        const again = core.parse_sweep(st.text, st.fileName, v.zref);
         st.file.free();
         st.file = again;
         st.zref = v.zref;
