@@ -118,6 +118,19 @@ impl Json {
         self.out.push(']');
         self
     }
+    /// A member holding an array of strings.
+    pub fn strs<'a>(&mut self, k: &str, xs: impl IntoIterator<Item = &'a str>) -> &mut Self {
+        self.key(k);
+        self.out.push('[');
+        for (i, x) in xs.into_iter().enumerate() {
+            if i > 0 {
+                self.out.push(',');
+            }
+            self.string_raw(x);
+        }
+        self.out.push(']');
+        self
+    }
     /// The finished text.
     pub fn finish(self) -> String {
         self.out
@@ -139,10 +152,12 @@ mod tests {
             .open("")
             .close()
             .close_array();
-        j.nums("n", [1.0, f64::INFINITY]).close();
+        j.nums("n", [1.0, f64::INFINITY])
+            .strs("w", ["a", "b\""])
+            .close();
         assert_eq!(
             j.finish(),
-            r#"{"a":1.5,"b":null,"s":"x\"y","l":[{"i":2},{}],"n":[1,null]}"#
+            r#"{"a":1.5,"b":null,"s":"x\"y","l":[{"i":2},{}],"n":[1,null],"w":["a","b\""]}"#
         );
     }
 }

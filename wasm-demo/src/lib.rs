@@ -12,10 +12,12 @@
 
 use wasm_bindgen::prelude::*;
 
+pub mod design;
 pub mod fault;
 pub mod json;
 pub mod line;
 pub mod sim;
+pub mod sweep;
 pub mod termination;
 pub mod trace;
 pub mod units;

@@ -208,6 +208,9 @@ test('dark theme, print report with inputs, plots, table and caution', async () 
   await page.emulateMedia({ media: 'print' });
   assert.ok(await page.locator('#caution').isVisible(), 'caution printed');
   assert.ok(await page.locator('#trace-events').isVisible(), 'event table printed');
+  // The print layout resizes the page, which redraws the plots (the profile
+  // in steps after the frame): wait for it.
+  await page.waitForSelector('#trace-profile svg', { state: 'visible', timeout: 5000 });
   assert.ok(await page.locator('#trace-profile svg').isVisible(), 'profile printed');
   assert.ok(await page.locator('#trace-vf').isVisible(), 'inputs printed');
   assert.ok(!(await page.locator('#trace-demo').isVisible()), 'buttons not printed');

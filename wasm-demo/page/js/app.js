@@ -23,7 +23,20 @@ const Echo = (() => {
   let core = null;
   let firstResultMs = null;
 
-  function section(spec) { specs.push(spec); }
+  // Sections registered after start (the scripts js/boot.js unpacks) are
+  // built and computed as they arrive, in the order of their files.
+  let place = null;
+  function section(spec) {
+    specs.push(spec);
+    if (place) {
+      build(spec, place.main, place.nav, place.later);
+      if (!spec.planned) run(spec);
+      // Cards already drawn may have changed width: draw all again once
+      // the late ones are in.
+      clearTimeout(place.redraw);
+      place.redraw = setTimeout(runAll, 0);
+    }
+  }
 
   function h(tag, attrs, ...children) {
     const e = document.createElement(tag);
@@ -272,6 +285,7 @@ const Echo = (() => {
       if (!s.planned) run(s);
     }
     if (later.childElementCount) main.append(later);
+    place = { main, nav, later };
     controls();
     // Plots are drawn at the width their card has; the first cards were drawn
     // before the later ones shared the row with them: draw again once all are in.

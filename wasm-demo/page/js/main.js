@@ -4,7 +4,9 @@
 (async () => {
   const boot = document.getElementById('boot');
   try {
-    await wasm_bindgen({ module_or_path: await ECHOLINE_MODULE });
+    const module = await ECHOLINE_MODULE;
+    performance.mark('echoline:core-compiled');
+    await wasm_bindgen({ module_or_path: module });
     performance.mark('echoline:core-ready');
     Echo.start(wasm_bindgen);
     boot.textContent = '';
