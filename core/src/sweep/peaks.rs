@@ -80,6 +80,10 @@ fn collect<T: Real, F: Fn(usize) -> Option<(T, T)>, const N: usize>(
         };
         let right = if i + 1 < len {
             get(i + 1).map(|p| p.0)
+        } else if periodic {
+            // On a periodic grid the last sample's right neighbour is the
+            // first: without it a peak at 0 m was listed again at the range.
+            get(0).map(|p| p.0)
         } else {
             None
         };
@@ -196,5 +200,27 @@ mod tests {
             peaks_complex(&x, &g, 0.0, &mut four).unwrap_err(),
             Error::NotPositive("threshold")
         );
+    }
+
+    /// A reflection at the reference plane on the periodic (FFT) grid: its
+    /// main lobe spans both ends of the grid, and it must be listed once, at
+    /// 0 m, not again at the end of the range.
+    #[test]
+    fn a_peak_at_zero_is_not_repeated_at_the_range() {
+        let fg = FreqGrid::<f64>::new(1e6, 1e6, 8).unwrap();
+        let v = VelocityRange::from_factor(0.5, 0.01).unwrap();
+        let g = distance_grid(
+            &fg,
+            &v,
+            &Window::Rectangular,
+            Mode::BandPass,
+            Span::Fft { points: 8 },
+        )
+        .unwrap();
+        let x = [1.0, 0.6, 0.1, 0.05, 0.05, 0.1, 0.3, 0.8].map(|r| cx(r, 0.0));
+        let mut p: Vec<Peak<f64>, 4> = Vec::new();
+        peaks_complex(&x, &g, 0.2, &mut p).unwrap();
+        assert_eq!(p.len(), 1, "{p:?}");
+        assert_eq!(p[0].index, 0);
     }
 }
