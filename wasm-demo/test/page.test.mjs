@@ -99,10 +99,11 @@ test('first result within 150 ms of opening, safety caution shown first', async 
   // open in a freshly launched browser also pays the browser's own start-up
   // (its wasm engine, its JIT): it is reported and given a loose bound; the
   // budget applies to opening the file in a running browser, here the median
-  // of five opens in new tabs.
+  // of nine opens in new tabs (nine, so that one slow open on a busy machine
+  // does not move the median).
   const cold = await firstResultMs(page);
   const warm = [];
-  for (let i = 0; i < 5; i++) {
+  for (let i = 0; i < 9; i++) {
     const tab = await context.newPage();
     await tab.goto(url);
     await tab.waitForSelector('#fault [data-key="distance"]');
@@ -112,7 +113,7 @@ test('first result within 150 ms of opening, safety caution shown first', async 
   warm.sort((a, b) => a - b);
   console.log(`# first result: cold open ${cold.toFixed(1)} ms; opens in a running browser ${warm.map((x) => x.toFixed(1)).join(', ')} ms`);
   assert.ok(Number.isFinite(cold) && cold <= 1000, `cold open: first result after ${cold} ms`);
-  assert.ok(warm[2] <= 150, `first result after ${warm[2]} ms (median)`);
+  assert.ok(warm[4] <= 150, `first result after ${warm[4]} ms (median)`);
   const caution = page.locator('#caution');
   assert.ok(await caution.isVisible());
   assert.ok((await caution.textContent()).replace(/\s+/g, ' ').includes(
