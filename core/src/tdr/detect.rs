@@ -412,6 +412,83 @@ impl<'r, T: Real> Filters<'r, T> {
             )
         }
     }
+
+    /// First and one-past-last `n` of the interior: where S(n), S(n − 2w) and
+    /// S(n + 2w) all exist (3w ≤ n, n + 3w ≤ len) and the ring serves them.
+    /// Empty when the ring is not used.
+    fn interior_range(&self, n_start: usize, n_end: usize) -> (usize, usize) {
+        let w3 = 3 * self.w;
+        let from = n_start.max(w3).min(n_end);
+        let to = (self.len + 1).saturating_sub(w3).clamp(from, n_end);
+        if self.use_ring {
+            (from, to)
+        } else {
+            (from, from)
+        }
+    }
+
+    /// [`Filters::at`] for `n` in `[from, to)` of the interior, without the
+    /// per-sample edge tests, `Option`s and NaN checks: `each(n, S(n),
+    /// S(n − 2w), S(n + 2w))`. `vals` yields the three samples the running
+    /// sums take in and drop at each step, v(n + w − 1), v(n + 2w − 1),
+    /// v(n + 3w − 1); `sum(a, b)` is the sum of v over `[a, b)` in index
+    /// order (the re-sum). The arithmetic and the re-sum points are those of
+    /// [`Haar::goto`], so the outputs are bit-identical. Returns the `n` it
+    /// stopped at: `from` if the filter state does not continue at `from`
+    /// (the caller then goes on sample by sample).
+    #[inline(always)]
+    fn interior<I, F, E>(
+        &mut self,
+        from: usize,
+        to: usize,
+        vals: I,
+        sum: F,
+        mut each: E,
+    ) -> Result<usize>
+    where
+        I: Iterator<Item = (T, T, T)>,
+        F: Fn(usize, usize) -> T,
+        E: FnMut(usize, T, T, T) -> Result<()>,
+    {
+        const MASK: usize = RING - 1;
+        let (w, w2) = (self.w, 2 * self.w);
+        let lead = self.lead;
+        if from >= to || !self.use_ring || !lead.ok || lead.pos + 1 != from + w2 || from < w2 {
+            return Ok(from);
+        }
+        let inv_w = self.inv_w;
+        let (mut sl, mut sr, mut since) = (lead.sl, lead.sr, lead.since);
+        let ring = &mut *self.ring;
+        let mut n = from;
+        for (a, b, c) in vals.take(to - from) {
+            let p = n + w2;
+            if since < Haar::<T>::RESUM {
+                sr = sr - b + c;
+                sl = sl - a + b;
+                since += 1;
+            } else {
+                sl = sum(p - w, p);
+                sr = sum(p, p + w);
+                since = 0;
+            }
+            let right = (sr - sl) * inv_w;
+            if let Some(slot) = ring.get_mut(p & MASK) {
+                *slot = right;
+            }
+            let centre = ring.get(n & MASK).copied().unwrap_or(T::zero());
+            let left = ring.get((n - w2) & MASK).copied().unwrap_or(T::zero());
+            each(n, centre, left, right)?;
+            n += 1;
+        }
+        self.lead = Haar {
+            pos: n - 1 + w2,
+            sl,
+            sr,
+            ok: true,
+            since,
+        };
+        Ok(n)
+    }
 }
 
 /// A run of filter output above threshold.
@@ -423,6 +500,60 @@ struct Lobe<T> {
     peak_idx: usize,
     peak: T,
     trend: T,
+}
+
+/// The lobe being built, the one waiting for a partner, and the thresholds.
+struct Scan<T> {
+    lobe: Option<Lobe<T>>,
+    pending: Option<Lobe<T>>,
+    masked: bool,
+    n_start: usize,
+    thr: T,
+    half_thr: T,
+}
+
+impl<T: Real> Scan<T> {
+    /// One filter output `x` (trend removed) at sample `n`; `slope_trend` is
+    /// the creep kept with a lobe's peak for its level measurement.
+    #[inline(always)]
+    fn sample<S: Samples<T> + ?Sized, const N: usize>(
+        &mut self,
+        run: &mut Run<'_, '_, '_, T, S, N>,
+        n: usize,
+        x: T,
+        slope_trend: T,
+    ) -> Result<()> {
+        let ax = x.abs();
+        if let Some(l) = self.lobe.as_mut() {
+            if x.signum() == l.sign && ax > self.half_thr {
+                if ax > l.peak {
+                    l.peak = ax;
+                    l.peak_idx = n;
+                    l.trend = slope_trend;
+                }
+                l.end = n + 1;
+                return Ok(());
+            }
+            let l = *l;
+            self.lobe = None;
+            if l.start == self.n_start {
+                self.masked = true;
+            } else {
+                run.lobe_done(&mut self.pending, l)?;
+            }
+        }
+        if ax > self.thr {
+            self.lobe = Some(Lobe {
+                sign: x.signum(),
+                start: n,
+                end: n + 1,
+                peak_idx: n,
+                peak: ax,
+                trend: slope_trend,
+            });
+        }
+        Ok(())
+    }
 }
 
 /// An event before distances are attached.
@@ -730,6 +861,17 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     settings: &DetectSettings<T>,
     out: &mut Analysis<T, N>,
 ) -> Result<()> {
+    analyse_with(trace, settings, out, true)
+}
+
+/// [`analyse_into`]; `interior: false` takes every sample through the
+/// checked edge path (the reference the interior loop is tested against).
+fn analyse_with<T: Real, S: Samples<T> + ?Sized, const N: usize>(
+    trace: &Trace<'_, T, S>,
+    settings: &DetectSettings<T>,
+    out: &mut Analysis<T, N>,
+    interior: bool,
+) -> Result<()> {
     out.events.clear();
     let set = *settings;
     crate::error::positive(set.k_sigma, "k_sigma")?;
@@ -799,63 +941,88 @@ pub fn analyse_into<T: Real, S: Samples<T> + ?Sized, const N: usize>(
     };
     let mut ring = [T::nan(); RING];
     let mut filters = Filters::new(trace.samples, w, len, n_start, &mut ring);
-    let mut lobe: Option<Lobe<T>> = None;
-    let mut pending: Option<Lobe<T>> = None;
-    let mut masked = false;
-    let half_thr = thr * T::half();
+    let mut scan = Scan {
+        lobe: None,
+        pending: None,
+        masked: false,
+        n_start,
+        thr,
+        half_thr: thr * T::half(),
+    };
     let s = trace.samples;
-    for n in n_start..n_end {
+    // Creep estimates from the filter outputs 2w either side. For detection,
+    // their minmod: a slow creep gives outputs of one sign on both sides, while
+    // outputs of opposite signs are two real edges (both ends of a short
+    // section), which must not be subtracted or they invent steps. For the
+    // level measurement of a step, the smaller of the two (`slope_trend`): on
+    // a lossy cable the level before an edge creeps one way and the edge's own
+    // slow tail the other, and extrapolating with the smaller creep reads the
+    // step height best.
+    let minmod = |a: T, b: T| {
+        let small = if a.abs() <= b.abs() { a } else { b };
+        (if a * b <= T::zero() { T::zero() } else { small }, small)
+    };
+    // Edges (sample by sample, through the filters' checked reads), then the
+    // interior (no edge tests), then the edge at the far end.
+    let edge = |n: usize, filters: &mut Filters<'_, T>| {
         let (sc, left, right) = filters.at(s, n);
         let sc = sc.unwrap_or(T::zero());
-        // Creep estimates from the filter outputs 2w either side. For
-        // detection, their minmod: a slow creep gives outputs of one sign on
-        // both sides, while outputs of opposite signs are two real edges (both
-        // ends of a short section), which must not be subtracted or they invent
-        // steps. For the level measurement of a step, the smaller of the two
-        // (`slope_trend`): on a lossy cable the level before an edge creeps one
-        // way and the edge's own slow tail the other, and extrapolating with
-        // the smaller creep reads the step height best.
         let (trend, slope_trend) = match (left, right) {
-            (Some(a), Some(b)) => {
-                let small = if a.abs() <= b.abs() { a } else { b };
-                (if a * b <= T::zero() { T::zero() } else { small }, small)
-            }
+            (Some(a), Some(b)) => minmod(a, b),
             (Some(a), None) => (a, a),
             (None, Some(b)) => (b, b),
             (None, None) => (T::zero(), T::zero()),
         };
-        let x = sc - trend;
-        let ax = x.abs();
-        let sign = x.signum();
-        if let Some(mut l) = lobe {
-            if sign == l.sign && ax > half_thr {
-                if ax > l.peak {
-                    l.peak = ax;
-                    l.peak_idx = n;
-                    l.trend = slope_trend;
-                }
-                l.end = n + 1;
-                lobe = Some(l);
-                continue;
-            }
-            lobe = None;
-            if l.start == n_start {
-                masked = true;
-            } else {
-                run.lobe_done(&mut pending, l)?;
-            }
-        }
-        if ax > thr {
-            lobe = Some(Lobe {
-                sign,
-                start: n,
-                end: n + 1,
-                peak_idx: n,
-                peak: ax,
-                trend: slope_trend,
-            });
-        }
+        (sc - trend, slope_trend)
+    };
+    let (from, to) = if interior {
+        filters.interior_range(n_start, n_end)
+    } else {
+        (n_end, n_end)
+    };
+    for n in n_start..from {
+        let (x, slope_trend) = edge(n, &mut filters);
+        scan.sample(&mut run, n, x, slope_trend)?;
     }
+    let each = |n: usize, centre: T, left: T, right: T| {
+        let (trend, slope_trend) = minmod(left, right);
+        scan.sample(&mut run, n, centre - trend, slope_trend)
+    };
+    let resume = match s.as_slice() {
+        Some(v) => {
+            // v(n + w − 1), v(n + 2w − 1), v(n + 3w − 1) for n in [from, to),
+            // as three checked sub-slices read in step.
+            let lane =
+                |k: usize| v.get((from + k * w).saturating_sub(1)..(to + k * w).saturating_sub(1));
+            match (lane(1), lane(2), lane(3)) {
+                (Some(a), Some(b), Some(c)) => {
+                    let vals = a.iter().zip(b).zip(c).map(|((&a, &b), &c)| (a, b, c));
+                    let sum = |i: usize, j: usize| {
+                        v.get(i..j)
+                            .map_or(T::zero(), |x| x.iter().fold(T::zero(), |acc, &y| acc + y))
+                    };
+                    filters.interior(from, to, vals, sum, each)?
+                }
+                _ => from,
+            }
+        }
+        None => {
+            let v = |i: usize| s.volts(i).unwrap_or(T::zero());
+            let vals = (from..to).map(|n| (v(n + w - 1), v(n + 2 * w - 1), v(n + 3 * w - 1)));
+            let sum = |i: usize, j: usize| (i..j).fold(T::zero(), |acc, k| acc + v(k));
+            filters.interior(from, to, vals, sum, each)?
+        }
+    };
+    for n in resume..n_end {
+        let (x, slope_trend) = edge(n, &mut filters);
+        scan.sample(&mut run, n, x, slope_trend)?;
+    }
+    let Scan {
+        lobe,
+        mut pending,
+        mut masked,
+        ..
+    } = scan;
     if let Some(l) = lobe {
         if l.start == n_start {
             masked = true;
@@ -1012,6 +1179,117 @@ mod tests {
         }
         let mut r = [0.0; RING];
         assert!(!Filters::new(&x[..], RING / 4, x.len(), 0, &mut r).use_ring);
+    }
+
+    /// Invented test traces: launch, steps, a lumped dip, a slow creep and
+    /// deterministic dither (LCG), `len` samples.
+    fn test_trace(out: &mut [f64], seed: u32, creep: f64, noise: f64) {
+        let len = out.len();
+        let mut x = seed;
+        let edge = |i: usize, at: usize| if i >= at { 1.0 } else { 0.0 };
+        for (i, v) in out.iter_mut().enumerate() {
+            *v = {
+                x = x.wrapping_mul(1_664_525).wrapping_add(1_013_904_223);
+                let d = ((x >> 8) as f64 / (1u32 << 24) as f64 - 0.5) * noise;
+                let launch = edge(i, len / 16);
+                let f = |k: usize| len * k / 32;
+                let dip = if (f(9)..f(9) + 3).contains(&i) {
+                    -0.1
+                } else {
+                    0.0
+                };
+                let creep = creep * i.saturating_sub(len / 16) as f64;
+                launch * (0.5 + 0.1 * edge(i, f(5)) - 0.15 * edge(i, f(13)) + dip + creep)
+                    + 0.3 * edge(i, f(24))
+                    + d
+            };
+        }
+    }
+
+    fn same_analysis<T: Real, S: Samples<T> + ?Sized>(t: &Trace<'_, T, S>, w: Option<usize>) {
+        let set = DetectSettings {
+            filter_samples: w,
+            ..DetectSettings::default()
+        };
+        let (mut a, mut b) = (Analysis::<T, 16>::empty(), Analysis::<T, 16>::empty());
+        let ra = analyse_with(t, &set, &mut a, true);
+        let rb = analyse_with(t, &set, &mut b, false);
+        assert_eq!(ra, rb, "w {w:?}");
+        assert_eq!(a.events, b.events, "w {w:?}");
+        assert_eq!(
+            (a.masked_by_dead_zone, a.echoes_after_end, a.rejected_lobes),
+            (b.masked_by_dead_zone, b.echoes_after_end, b.rejected_lobes),
+            "w {w:?}"
+        );
+        assert_eq!(a.threshold_v, b.threshold_v);
+    }
+
+    /// The interior loop (no per-sample checks) gives bit-identical results
+    /// to the checked path, for float slices, arrays and ADC codes, across
+    /// filter lengths (ring and three-filter cases, re-sums within and
+    /// across the interior), short and long traces.
+    #[test]
+    fn interior_loop_is_bit_identical_to_the_checked_path() {
+        use crate::tdr::trace::{AdcCodes, TimeZero, TraceSetup};
+        let vel = VelocityRange::from_factor(0.66, 0.01).unwrap();
+        let mut found_events = 0;
+        for (len, seed, creep, noise) in [
+            (200usize, 1u32, 0.0, 2e-3),
+            (1000, 2, 1e-5, 2e-3),
+            (3000, 3, -2e-5, 1e-2),
+            (5000, 4, 0.0, 0.0),
+            (777, 5, 3e-5, 5e-4),
+        ] {
+            let (mut xb, mut x32b, mut cb) = ([0.0f64; 5000], [0.0f32; 5000], [0i16; 5000]);
+            let x = &mut xb[..len];
+            test_trace(x, seed, creep, noise);
+            let (x32, codes) = (&mut x32b[..len], &mut cb[..len]);
+            for ((a, b), c) in x.iter().zip(x32.iter_mut()).zip(codes.iter_mut()) {
+                *b = *a as f32;
+                *c = (*a * 4000.0) as i16;
+            }
+            let (x, x32, codes) = (&*x, &*x32, &*codes);
+            let mut su = TraceSetup::measured(1e-10, 50.0, vel);
+            let su32 = TraceSetup::measured(
+                1e-10f32,
+                50.0,
+                VelocityRange::from_factor(0.66f32, 0.01).unwrap(),
+            );
+            su.time_zero = TimeZero::FromLaunch;
+            let t64 = Trace::new(x, su).unwrap();
+            let t32 = Trace::new(x32, su32).unwrap();
+            let adc = AdcCodes::<i16, f64>::new(codes, 1.0 / 4000.0, 0.0).unwrap();
+            let tadc = Trace::new(&adc, su).unwrap();
+            for w in [
+                None,
+                Some(2),
+                Some(3),
+                Some(8),
+                Some(21),
+                Some(63),
+                Some(64),
+                Some(90),
+            ] {
+                if w.is_some_and(|w| 8 * w >= len) {
+                    continue;
+                }
+                same_analysis(&t64, w);
+                same_analysis(&t32, w);
+                same_analysis(&tadc, w);
+                if let Ok(a) = t64.analyse::<16>(&DetectSettings {
+                    filter_samples: w,
+                    ..DetectSettings::default()
+                }) {
+                    found_events += a.events.len();
+                }
+            }
+        }
+        // The comparison is not vacuous: events were found.
+        assert!(found_events > 20, "{found_events}");
+        let mut arr = [0.0f64; 600];
+        test_trace(&mut arr, 9, 0.0, 1e-3);
+        let ta = Trace::new(&arr, TraceSetup::measured(1e-10, 50.0, vel)).unwrap();
+        same_analysis(&ta, Some(5));
     }
 
     #[test]
