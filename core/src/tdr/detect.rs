@@ -562,6 +562,7 @@ impl<T: Real> Scan<T> {
     /// the creep estimates either side, whose smaller ([`smaller`]) is kept
     /// with a lobe's peak for its level measurement (taken only there).
     #[inline(always)]
+    #[allow(clippy::neg_cmp_op_on_partial_ord)]
     fn sample<S: Samples<T> + ?Sized, const N: usize>(
         &mut self,
         run: &mut Run<'_, '_, '_, T, S, N>,
@@ -570,6 +571,26 @@ impl<T: Real> Scan<T> {
         neighbours: (T, T),
     ) -> Result<()> {
         let ax = x.abs();
+        // The common case, inline: no lobe and nothing above the threshold.
+        // Written `!(ax > thr)`, the negation of the rule's own test (one
+        // compare fewer per sample than `ax <= thr` as compiled).
+        if self.lobe.is_none() && !(ax > self.thr) {
+            return Ok(());
+        }
+        self.lobe_sample(run, n, x, ax, neighbours)
+    }
+
+    /// [`Scan::sample`] inside a lobe or at its start (kept out of line so
+    /// that the loops stay small).
+    #[inline(never)]
+    fn lobe_sample<S: Samples<T> + ?Sized, const N: usize>(
+        &mut self,
+        run: &mut Run<'_, '_, '_, T, S, N>,
+        n: usize,
+        x: T,
+        ax: T,
+        neighbours: (T, T),
+    ) -> Result<()> {
         if let Some(l) = self.lobe.as_mut() {
             if x.signum() == l.sign && ax > self.half_thr {
                 if ax > l.peak {
