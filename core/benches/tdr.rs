@@ -3,7 +3,7 @@
 //! * `analyse_16384`: noise floor + one-pass detection + classification of a
 //!   16,384-sample simulated trace (three steps, an open end, 2 mV noise).
 //!   Work memory: none per sample beyond the borrowed trace (O(1): filters, a
-//!   512-value ring, the 256-point noise array) plus the event list.
+//!   256-value ring, the 256-point noise array) plus the event list.
 //! * `peel_4096`: layer peeling of 4,096 cells of a matched four-section
 //!   trace (O(n²/2)). Work memory: D and U buffers plus the output, 3 values
 //!   per sample (12 bytes in f32, 24 in f64).

@@ -55,6 +55,12 @@ pub trait Samples<T: Real> {
     fn resolution_v(&self) -> T {
         T::zero()
     }
+    /// The samples as one contiguous slice of volts, when they are stored so
+    /// (`None` by default). Hot loops read such a slice directly instead of
+    /// calling [`Samples::volts`] per sample; results are the same either way.
+    fn as_slice(&self) -> Option<&[T]> {
+        None
+    }
 }
 
 impl<T: Real> Samples<T> for [T] {
@@ -66,6 +72,10 @@ impl<T: Real> Samples<T> for [T] {
     fn volts(&self, index: usize) -> Option<T> {
         self.get(index).copied()
     }
+    #[inline]
+    fn as_slice(&self) -> Option<&[T]> {
+        Some(self)
+    }
 }
 
 impl<T: Real, const M: usize> Samples<T> for [T; M] {
@@ -76,6 +86,10 @@ impl<T: Real, const M: usize> Samples<T> for [T; M] {
     #[inline]
     fn volts(&self, index: usize) -> Option<T> {
         self.get(index).copied()
+    }
+    #[inline]
+    fn as_slice(&self) -> Option<&[T]> {
+        Some(&self[..])
     }
 }
 
