@@ -55,17 +55,37 @@
 //! the ranges above (geometry, εr, h/λ0); THIN_CONDUCTOR where t/3 < δ < 3t;
 //! HIGH_LOSS, DIFFUSIVE as for [`Rlgc`](crate::line::rlgc::Rlgc).
 //!
+//! **Wideband Debye dielectric: the ε′ table.** The statics that depend on εr
+//! (Z0, εeff0, ln εeff0, the conductor coefficient, P2, P4, R7, R3·εr^1.674,
+//! R9's εr part, R10, R16's εr part) are tabulated at construction as Chebyshev
+//! series of degree 9 in ε′ over [ε∞, εs]: the model's ε′ is monotonic between
+//! εs (f = 0) and ε∞ (f → ∞), so every frequency falls inside. Ten evaluations
+//! at the Chebyshev nodes, then 11 dot products of length 10 per call. The
+//! table is kept only when, for every quantity, the last two coefficients sum
+//! to at most 10⁻⁹ (f64; 64ε ≈ 7.6·10⁻⁶ in f32) of its largest value (of 1 for
+//! ln εeff0, R9 and R16, which enter next to numbers of order 1); coefficients
+//! below a quarter of that bound over ten are dropped. Otherwise (ε′ ranges so wide or so close
+//! to 1 that the series converges slowly, e.g. ε∞ = 1, Δε = 30) the statics
+//! are evaluated directly at ε′(f) on every call, as before. Tested against
+//! the direct evaluation for seven dielectrics (εr 1.2 … 12.9, tanδ 0.001 …
+//! 0.08) and eight geometries from 0 Hz to 10 THz: Z0, εeff and α agree to
+//! 1·10⁻⁸ (worst seen 4·10⁻¹⁰) in f64 and 2·10⁻⁵ (worst seen 1·10⁻⁵, the
+//! f32 rounding of the direct path itself) in f32: far inside the
+//! Hammerstad–Jensen accuracy (0.2 % εeff, 0.03 % Z0). The table costs 896
+//! bytes in f64 (448 in f32) inside the struct, no heap.
+//!
 //! Cost: with a constant dielectric every εr-dependent term is computed at
 //! construction; `at` then costs the dispersion (eleven `exp`, four `ln`), one
-//! `atan` with roughness, and the γ/Zc roots: about 1 600 instructions, 190 ns
-//! per point in `f64` on x86-64 (110 ns without the Zc dispersion; best of 40
-//! batches of 10 000 on a shared, loaded machine). With a wideband Debye
-//! dielectric the static part is re-evaluated at ε′(f) on every call: about
-//! 3 800 instructions, 540 ns, over the 300 ns goal; a table of the statics
-//! over the narrow ε′ range of the dielectric would remove most of it.
-//! (`core/benches/line_models.rs`.)
+//! `atan` with roughness, and the γ/Zc roots: about 1 230 instructions, 140 ns
+//! per point in `f64` on x86-64 (best of 40 runs of 10 000 points on a shared,
+//! loaded machine; `ms64` in `core/examples/perf_probe.rs`). With a wideband
+//! Debye dielectric and the ε′ table: about 1 690 instructions, 185 ns (3 080
+//! and 360 ns when the statics were evaluated at ε′(f) on every call). In
+//! `f32`: 180 ns constant, 215 ns Debye. Instruction counts from
+//! `tests/scripts/callgrind.sh` (rows `ms`, `msdebye`); wall-clock also from
+//! `core/benches/line_models.rs`.
 //!
-//! Size: `Microstrip<f64>` ≤ 448 bytes, `Microstrip<f32>` ≤ 224 bytes (no heap).
+//! Size: `Microstrip<f64>` ≤ 1 168 bytes, `Microstrip<f32>` ≤ 584 bytes (no heap).
 
 use crate::error::{self, Error, Result};
 use crate::line::conductor::Metal;
@@ -172,6 +192,101 @@ struct Statics<T> {
     warn: Warnings,
 }
 
+impl<T: Real> Statics<T> {
+    /// The εr-dependent numbers, in the table's order.
+    fn tabulated(&self) -> [T; NQ] {
+        [
+            self.z0,
+            self.ee0,
+            self.ln_ee0,
+            self.k_hf,
+            self.p2,
+            self.p4,
+            self.r7,
+            self.r3_er,
+            self.r9a,
+            self.r10,
+            self.r16a,
+        ]
+    }
+}
+
+/// Number of Chebyshev nodes (and coefficients) of the ε′ table.
+const NT: usize = 10;
+/// Number of tabulated statics (see [`Statics::tabulated`]).
+const NQ: usize = 11;
+/// Absolute scale below which a tabulated quantity's error is judged against
+/// 1 rather than its own size: ln εeff0 (an exponent), R9 and R16 − 1 (terms
+/// added to numbers of order 1). 0: judged relative to its own size.
+const FLOOR: [f64; NQ] = [0.0, 0.0, 1.0, 0.0, 0.0, 0.0, 0.0, 0.0, 1.0, 0.0, 1.0];
+/// The Chebyshev nodes cos(π(j + ½)/NT), j = 0…NT − 1.
+const NODES: [f64; NT] = [
+    0.987_688_340_595_137_8,
+    0.891_006_524_188_367_9,
+    core::f64::consts::FRAC_1_SQRT_2,
+    0.453_990_499_739_546_8,
+    0.156_434_465_040_230_9,
+    -0.156_434_465_040_230_9,
+    -0.453_990_499_739_546_8,
+    -core::f64::consts::FRAC_1_SQRT_2,
+    -0.891_006_524_188_367_9,
+    -0.987_688_340_595_137_8,
+];
+
+/// T_0(x)…T_{NT−1}(x) by the three-term recurrence.
+#[inline(always)]
+fn chebyshev<T: Real>(x: T) -> [T; NT] {
+    let mut t = [T::zero(); NT];
+    let (mut a, mut b) = (T::one(), x);
+    let two_x = x + x;
+    for v in t.iter_mut() {
+        *v = a;
+        let next = two_x * b - a;
+        a = b;
+        b = next;
+    }
+    t
+}
+
+/// The εr-dependent statics as Chebyshev series in ε′ over [ε∞, εs] of a
+/// wideband Debye dielectric (its ε′ stays in that interval at every f ≥ 0).
+#[derive(Clone, Copy, Debug, PartialEq)]
+struct EpsTable<T> {
+    mid: T,
+    inv_half: T,
+    /// coef[k][q]: the k-th Chebyshev coefficient of quantity q (c0 halved).
+    coef: [[T; NQ]; NT],
+}
+
+impl<T: Real> EpsTable<T> {
+    /// The tabulated statics at ε′ = `er` (clamped to the interval).
+    #[inline(always)]
+    fn eval(&self, er: T) -> [T; NQ] {
+        let x = ((er - self.mid) * self.inv_half)
+            .max(-T::one())
+            .min(T::one());
+        let t = chebyshev(x);
+        let mut acc = [T::zero(); NQ];
+        for (row, &tk) in self.coef.iter().zip(t.iter()) {
+            for (a, &c) in acc.iter_mut().zip(row.iter()) {
+                *a = *a + c * tk;
+            }
+        }
+        acc
+    }
+}
+
+/// How the εr-dependent statics are obtained per call.
+#[derive(Clone, Copy, Debug, PartialEq)]
+enum Cache<T> {
+    /// A constant dielectric: computed once.
+    Fixed(Statics<T>),
+    /// A wideband Debye dielectric: interpolated in ε′.
+    Table(EpsTable<T>),
+    /// Computed at ε′(f) on every call (the table would not meet its bound).
+    Direct,
+}
+
 /// e^x as 2^(x·log2 e) in `f64`: libm's `exp2` costs about a third less than
 /// its `exp`, for a relative error of about |x|·ε (below 10⁻¹⁴ for the
 /// arguments here). In `f32` plain `expf` (libm's `exp2f` computes in double
@@ -263,7 +378,7 @@ pub struct Microstrip<T> {
     metal: Option<Metal<T>>,
     roughness_rms_m: T,
     r_dc: Option<T>,
-    fixed: Option<Statics<T>>,
+    cache: Cache<T>,
     cutoff_hz: T,
     thin_lo_hz: T,
     thin_hi_hz: T,
@@ -319,7 +434,7 @@ impl<T: Real> Microstrip<T> {
             metal,
             roughness_rms_m: T::zero(),
             r_dc,
-            fixed: None,
+            cache: Cache::Direct,
             cutoff_hz: T::zero(),
             thin_lo_hz,
             thin_hi_hz,
@@ -335,9 +450,14 @@ impl<T: Real> Microstrip<T> {
             T::infinity()
         };
         ms.cutoff_hz = f_ct.min(f_t);
-        if dielectric.debye().is_none() {
-            ms.fixed = Some(ms.statics(er0)?);
-        }
+        ms.cache = match dielectric.debye() {
+            None => Cache::Fixed(ms.statics(er0)?),
+            Some(d) => match ms.table(d.eps_inf(), er0) {
+                Some(t) => Cache::Table(t),
+                None if d.delta_eps() <= T::zero() => Cache::Fixed(ms.statics(er0)?),
+                None => Cache::Direct,
+            },
+        };
         Ok(ms)
     }
 
@@ -352,6 +472,103 @@ impl<T: Real> Microstrip<T> {
     pub fn with_roughness(mut self, roughness_rms_m: T) -> Result<Self> {
         self.roughness_rms_m = error::non_negative(roughness_rms_m, "roughness_rms_m")?;
         Ok(self)
+    }
+
+    /// The Chebyshev table of the statics over ε′ ∈ [lo, hi], or `None` when
+    /// the interval is empty, a node fails, or the last two coefficients of a
+    /// quantity exceed [`Self::TABLE_TOL`] of its largest value (the series
+    /// has then not converged to the bound; see the module docs).
+    fn table(&self, lo: T, hi: T) -> Option<EpsTable<T>> {
+        let half_w = (hi - lo) * T::half();
+        if half_w.is_nan() || half_w <= T::zero() {
+            return None;
+        }
+        let mid = (hi + lo) * T::half();
+        let mut coef = [[T::zero(); NQ]; NT];
+        let mut scale = [T::zero(); NQ];
+        let w = T::two() / T::from_usize(NT);
+        for &x in NODES.iter() {
+            let x = T::lit(x);
+            let v = self.statics(mid + half_w * x).ok()?.tabulated();
+            for (s, &q) in scale.iter_mut().zip(v.iter()) {
+                *s = s.max(q.abs());
+            }
+            for (row, &tk) in coef.iter_mut().zip(chebyshev(x).iter()) {
+                for (c, &q) in row.iter_mut().zip(v.iter()) {
+                    *c = *c + w * tk * q;
+                }
+            }
+        }
+        if let Some(row) = coef.first_mut() {
+            for c in row.iter_mut() {
+                *c = *c * T::half();
+            }
+        }
+        let tol = T::lit(Self::TABLE_TOL_F64).max(T::lit(64.0) * T::EPS);
+        // Each quantity's scale: its largest value, or FLOOR if larger.
+        for (s, &fl) in scale.iter_mut().zip(FLOOR.iter()) {
+            *s = s.max(T::lit(fl));
+        }
+        let mut tail = coef.iter().rev().take(2);
+        let (Some(a), Some(b)) = (tail.next(), tail.next()) else {
+            return None;
+        };
+        for ((&ca, &cb), &s) in a.iter().zip(b.iter()).zip(scale.iter()) {
+            let t = ca.abs() + cb.abs();
+            if t.is_nan() || t > tol * s || !s.is_finite() {
+                return None;
+            }
+        }
+        // Coefficients below tol/(4·NT) of the scale are dropped (tol/4 in all):
+        // no subnormal products per call (r9a is ~10⁻³⁴ for wide strips).
+        let drop = tol / T::lit(4.0 * NT as f64);
+        for row in coef.iter_mut() {
+            for (c, &s) in row.iter_mut().zip(scale.iter()) {
+                if c.abs() <= drop * s {
+                    *c = T::zero();
+                }
+            }
+        }
+        Some(EpsTable {
+            mid,
+            inv_half: T::one() / half_w,
+            coef,
+        })
+    }
+
+    /// Acceptance bound of the table's tail coefficients, relative (f64; in
+    /// f32 it is 64 ε ≈ 7.6·10⁻⁶).
+    const TABLE_TOL_F64: f64 = 1e-9;
+
+    /// The statics at ε′ = `er` from the table.
+    #[inline(always)]
+    fn statics_from(&self, t: &EpsTable<T>, er: T) -> Result<Statics<T>> {
+        let [z0, ee0, ln_ee0, k_hf, p2, p4, r7, r3_er, r9a, r10, r16a] = t.eval(er);
+        let mut warn = Warnings::NONE;
+        warn.set_if(
+            er > T::lit(18.0) || self.u > T::lit(10.0) || self.u < T::lit(0.1),
+            Warnings::OUTSIDE_FIT_RANGE,
+        );
+        Ok(Statics {
+            er,
+            z0,
+            ee0,
+            ln_ee0,
+            k_hf,
+            skin: SkinLoss::new(k_hf, self.r_dc)?,
+            p1a: self.geo.p1a,
+            p1b: self.u,
+            p2,
+            p3a: self.geo.p3a,
+            p4,
+            r7,
+            r3_er,
+            r9a,
+            r10,
+            r12: self.geo.r12,
+            r16a,
+            warn,
+        })
     }
 
     fn statics(&self, er: T) -> Result<Statics<T>> {
@@ -450,9 +667,10 @@ impl<T: Real> Microstrip<T> {
 
     fn statics_at(&self, f: T) -> Result<(StRef<'_, T>, T, T)> {
         let (er, loss) = self.dielectric.eval(f);
-        let st = match &self.fixed {
-            Some(s) => StRef::Borrowed(s),
-            None => StRef::Owned(self.statics(er)?),
+        let st = match &self.cache {
+            Cache::Fixed(s) => StRef::Borrowed(s),
+            Cache::Table(t) => StRef::Owned(self.statics_from(t, er)?),
+            Cache::Direct => StRef::Owned(self.statics(er)?),
         };
         Ok((st, er, loss))
     }
@@ -694,9 +912,99 @@ mod tests {
         assert_eq!(m.at(f64::NAN), Err(Error::NonFinite("freq_hz")));
     }
 
+    /// Largest relative differences (Z0, εeff, α) between the tabulated and the
+    /// direct statics over 0 Hz … 10 THz, or `None` when no table was built.
+    fn table_vs_direct<T: Real>(m: &Microstrip<T>) -> Option<[f64; 3]> {
+        if !matches!(m.cache, Cache::Table(_)) {
+            return None;
+        }
+        let mut direct = *m;
+        direct.cache = Cache::Direct;
+        let rel = |a: T, b: T| {
+            let (a, b) = (a.to_f64_lossless(), b.to_f64_lossless());
+            if a == b {
+                0.0
+            } else {
+                ((a - b) / b).abs()
+            }
+        };
+        let mut worst = [0.0f64; 3];
+        for k in 0..=240 {
+            let f = if k == 0 {
+                T::zero()
+            } else {
+                T::lit(10f64.powf(k as f64 / 20.0))
+            };
+            let (a, b) = (m.at(f).unwrap(), direct.at(f).unwrap());
+            worst[0] = worst[0].max(rel(m.z0_ohm(f).unwrap(), direct.z0_ohm(f).unwrap()));
+            worst[1] = worst[1].max(rel(m.eps_eff(f).unwrap(), direct.eps_eff(f).unwrap()));
+            worst[2] = worst[2].max(rel(a.alpha_np_per_m(), b.alpha_np_per_m()));
+            assert_eq!(a.warnings, b.warnings, "{f:?}");
+        }
+        Some(worst)
+    }
+
+    fn table_cases<T: Real>(bound: f64) -> usize {
+        let l = T::lit;
+        let mut tabulated = 0;
+        for &(er, td) in &[
+            (4.4, 0.02),
+            (2.2, 0.001),
+            (3.5, 0.004),
+            (9.8, 0.002),
+            (12.9, 0.01),
+            (3.0, 0.08),
+            (1.2, 0.01),
+        ] {
+            let d = Dielectric::wideband_debye(l(er), l(td), l(1e9)).unwrap();
+            for &u in &[0.15, 1.0, 3.0, 20.0] {
+                for &(t, metal) in &[(0.0, None), (35e-6, Some(Metal::copper()))] {
+                    let h = 1.6e-3;
+                    let m = Microstrip::new(l(u * h), l(h), l(t), d, metal).unwrap();
+                    if let Some(w) = table_vs_direct(&m) {
+                        tabulated += 1;
+                        assert!(
+                            w.iter().all(|&e| e <= bound),
+                            "εr {er} tanδ {td} u {u} t {t}: {w:?}"
+                        );
+                    }
+                }
+            }
+        }
+        tabulated
+    }
+
+    #[test]
+    fn debye_table_matches_direct_evaluation() {
+        // Against the direct Hammerstad–Jensen/Jansen–Kirschning evaluation at
+        // ε′(f) (this module's own formulas): the table's documented bound.
+        let n64 = table_cases::<f64>(1e-8);
+        let n32 = table_cases::<f32>(2e-5);
+        // 7 dielectrics × 8 geometries; all but the widest ε′ ranges tabulate.
+        assert!(n64 >= 48 && n32 >= 48, "{n64} {n32}");
+        // A range too wide for the series falls back to direct evaluation.
+        let wide = Dielectric::from_debye(
+            crate::line::dielectric::WidebandDebye::new(1.0, 30.0, 1e3, 1e12).unwrap(),
+        );
+        let m = Microstrip::<f64>::new(1e-3, 1e-3, 0.0, wide, None).unwrap();
+        assert_eq!(m.cache, Cache::Direct);
+        // The FR-4 line of the benchmark tabulates in both precisions.
+        let fr4 = |f| Microstrip::new(3e-3, 1.6e-3, 35e-6, f, Some(Metal::copper())).unwrap();
+        let d64 = Dielectric::<f64>::wideband_debye(4.4, 0.02, 1e9).unwrap();
+        let d32 = Dielectric::<f32>::wideband_debye(4.4, 0.02, 1e9).unwrap();
+        assert!(matches!(fr4(d64).cache, Cache::Table(_)));
+        assert!(matches!(
+            Microstrip::new(3e-3f32, 1.6e-3, 35e-6, d32, Some(Metal::copper()))
+                .unwrap()
+                .cache,
+            Cache::Table(_)
+        ));
+    }
+
     #[test]
     fn size_is_as_documented() {
-        assert!(core::mem::size_of::<Microstrip<f64>>() <= 448);
-        assert!(core::mem::size_of::<Microstrip<f32>>() <= 224);
+        // The ε′ table is 2 + 10·11 numbers: 896 bytes in f64, 448 in f32.
+        assert!(core::mem::size_of::<Microstrip<f64>>() <= 1168);
+        assert!(core::mem::size_of::<Microstrip<f32>>() <= 584);
     }
 }
