@@ -396,6 +396,30 @@ impl<T: Real> Microstrip<T> {
         dielectric: Dielectric<T>,
         metal: Option<Metal<T>>,
     ) -> Result<Self> {
+        Self::build(width_m, height_m, thickness_m, dielectric, metal, true)
+    }
+
+    /// As [`Self::new`] but without the ε′ table of a wideband Debye dielectric
+    /// (ten static evaluations saved), for a line evaluated at one or two
+    /// frequencies only, as in width synthesis. Same results within the table's bound.
+    pub(crate) fn new_untabulated(
+        width_m: T,
+        height_m: T,
+        thickness_m: T,
+        dielectric: Dielectric<T>,
+        metal: Option<Metal<T>>,
+    ) -> Result<Self> {
+        Self::build(width_m, height_m, thickness_m, dielectric, metal, false)
+    }
+
+    fn build(
+        width_m: T,
+        height_m: T,
+        thickness_m: T,
+        dielectric: Dielectric<T>,
+        metal: Option<Metal<T>>,
+        tabulate: bool,
+    ) -> Result<Self> {
         let w = error::positive(width_m, "width_m")?;
         let h = error::positive(height_m, "height_m")?;
         let t = error::non_negative(thickness_m, "thickness_m")?;
@@ -452,6 +476,7 @@ impl<T: Real> Microstrip<T> {
         ms.cutoff_hz = f_ct.min(f_t);
         ms.cache = match dielectric.debye() {
             None => Cache::Fixed(ms.statics(er0)?),
+            Some(_) if !tabulate => Cache::Direct,
             Some(d) => match ms.table(d.eps_inf(), er0) {
                 Some(t) => Cache::Table(t),
                 None if d.delta_eps() <= T::zero() => Cache::Fixed(ms.statics(er0)?),
