@@ -74,16 +74,18 @@
 //! Hammerstad–Jensen accuracy (0.2 % εeff, 0.03 % Z0). The table costs 896
 //! bytes in f64 (448 in f32) inside the struct, no heap.
 //!
-//! Cost: with a constant dielectric every εr-dependent term is computed at
-//! construction; `at` then costs the dispersion (eleven `exp`, four `ln`), one
-//! `atan` with roughness, and the γ/Zc roots: about 1 230 instructions, 140 ns
-//! per point in `f64` on x86-64 (best of 40 runs of 10 000 points on a shared,
-//! loaded machine; `ms64` in `core/examples/perf_probe.rs`). With a wideband
-//! Debye dielectric and the ε′ table: about 1 690 instructions, 185 ns (3 080
-//! and 360 ns when the statics were evaluated at ε′(f) on every call). In
-//! `f32`: 180 ns constant, 215 ns Debye. Instruction counts from
-//! `tests/scripts/callgrind.sh` (rows `ms`, `msdebye`); wall-clock also from
-//! `core/benches/line_models.rs`.
+//! Cost (x86-64, `f64`; wall-clock the best of 40 runs of 10 000 log-spaced
+//! points, 1 kHz–20 GHz, on a shared, loaded machine; instructions from
+//! `tests/scripts/callgrind.sh`, rows `ms` and `msdebye` of
+//! `core/examples/perf_probe.rs`): with a constant dielectric every
+//! εr-dependent term is computed at construction; `at` then costs the
+//! dispersion (at most eleven `exp`, four `ln`; fewer at low fn, where
+//! 1 − e^(−x) is a series and the R9, R11 powers are dropped), one `atan` with
+//! roughness, and the γ/Zc roots: about 1 160 instructions, 120 ns per point.
+//! With a wideband Debye dielectric and the ε′ table: about 1 630
+//! instructions, 165 ns (3 080 and 360 ns when the statics were evaluated at
+//! ε′(f) on every call). In `f32`: 900 instructions, 110 ns constant; 1 350,
+//! 150 ns Debye (the low-frequency powers no longer go subnormal).
 //!
 //! Size: `Microstrip<f64>` ≤ 1 168 bytes, `Microstrip<f32>` ≤ 584 bytes (no heap).
 
@@ -315,6 +317,23 @@ impl<T: Real> Ex for T {
         } else {
             (y * self.ln()).exp()
         }
+    }
+}
+
+/// 1 − e^(−x) for x ≥ 0: the series x·(1 − x/2·(1 − x/3)) below 10⁻⁵ in
+/// f64, 10⁻² in f32 (relative error x³/24: 5·10⁻¹⁷, 5·10⁻⁸; one `exp` saved
+/// and no cancellation), else directly (relative error about ε/x).
+#[inline(always)]
+fn one_minus_exp_neg<T: Real>(x: T) -> T {
+    let switch = if T::EPS < T::lit(1e-10) {
+        T::lit(1e-5)
+    } else {
+        T::lit(1e-2)
+    };
+    if x < switch {
+        x * (T::one() - x * T::half() * (T::one() - x / T::lit(3.0)))
+    } else {
+        T::one() - (-x).ex()
     }
 }
 
@@ -656,21 +675,39 @@ impl<T: Real> Microstrip<T> {
         let lnf = fnorm.ln();
         let p1 =
             st.p1a + (lit(0.6315) + lit(0.525) / (one + lit(0.0157) * fnorm).powi(20)) * st.p1b;
-        let p3 = st.p3a * (one - (-(lit(4.97) * lnf - lit(18.169_522_812_177_608)).ex()).ex());
+        // (fn/38.7)^4.97 below e^−40 leaves 0.1844 + P3·P4 unchanged in f64.
+        let a3 = lit(4.97) * lnf - lit(18.169_522_812_177_608);
+        let p3 = if a3 < lit(-40.0) {
+            T::zero()
+        } else {
+            st.p3a * one_minus_exp_neg(a3.ex())
+        };
         let base = lit(0.1844) + p3 * st.p4;
         let p = p1 * st.p2 * (lit(1.5763) * (base.ln() + lnf)).ex();
         let ee = st.er - (st.er - st.ee0) / (one + p);
         if !self.zc_dispersion {
             return (st.z0, ee, false);
         }
-        // Jansen–Kirschning Zc(f).
-        let r5 = (fnorm / lit(28.843)).powi(12);
+        // Jansen–Kirschning Zc(f). R9 and R11 are dropped where they cannot
+        // change 0.9408 − R9 or 1 + R16a·R11 in f64 (R9 < R9a·10⁻³⁶, R11 <
+        // 10⁻²⁴): no subnormal powers at low frequency (slow, and in f32 common).
         let r8 = one
             + lit(1.275)
-                * (one - (-st.r3_er * (lit(2.745) * lnf - lit(7.989_176_134_600_625)).ex()).ex());
-        let r9 = st.r9a * r5 / (one + lit(1.2992) * r5);
-        let x11 = (fnorm / lit(19.47)).powi(6);
-        let r11 = x11 / (one + lit(0.0962) * x11);
+                * one_minus_exp_neg(
+                    st.r3_er * (lit(2.745) * lnf - lit(7.989_176_134_600_625)).ex(),
+                );
+        let r9 = if st.r9a == T::zero() || fnorm < lit(28.843e-3) {
+            T::zero()
+        } else {
+            let r5 = (fnorm / lit(28.843)).powi(12);
+            st.r9a * r5 / (one + lit(1.2992) * r5)
+        };
+        let r11 = if fnorm < lit(19.47e-4) {
+            T::zero()
+        } else {
+            let x11 = (fnorm / lit(19.47)).powi(6);
+            x11 / (one + lit(0.0962) * x11)
+        };
         let r13 = lit(0.9408) * (r8 * ee.ln()).ex() - lit(0.9603);
         let r14 = (lit(0.9408) - r9) * (r8 * st.ln_ee0).ex() - lit(0.9603);
         let r15 = lit(0.707) * st.r10 * (lit(1.097) * lnf - lit(2.753_030_390_829_074)).ex();
@@ -1024,6 +1061,23 @@ mod tests {
                 .cache,
             Cache::Table(_)
         ));
+    }
+
+    #[test]
+    fn one_minus_exp_neg_is_accurate_on_both_sides_of_the_switch() {
+        // Against libm's expm1 (1 − e^−x = −expm1(−x)), f64 and f32.
+        for k in 0..=200 {
+            let x = 10f64.powf(-30.0 + k as f64 * 0.15);
+            // Series below the switch; above it the cancellation, about ε/x.
+            let want = -libm::expm1(-x);
+            let tol = 4.0 * f64::EPSILON * if x < 1e-5 { 1.0 } else { 1.0 + 1.0 / x };
+            assert_relative_eq!(one_minus_exp_neg(x), want, max_relative = tol);
+            let x32 = x as f32;
+            let want32 = -libm::expm1(-(x32 as f64));
+            let tol32 = 4.0 * f32::EPSILON as f64 * if x < 1e-2 { 1.0 } else { 1.0 + 1.0 / x };
+            assert_relative_eq!(one_minus_exp_neg(x32) as f64, want32, max_relative = tol32);
+        }
+        assert_eq!(one_minus_exp_neg(0.0f64), 0.0);
     }
 
     #[test]
