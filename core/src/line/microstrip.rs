@@ -520,7 +520,7 @@ impl<T: Real> Microstrip<T> {
 
     /// The Chebyshev table of the statics over ε′ ∈ [lo, hi], or `None` when
     /// the interval is empty, a node fails, or the last two coefficients of a
-    /// quantity exceed [`Self::TABLE_TOL`] of its largest value (the series
+    /// quantity exceed [`Self::TABLE_TOL_F64`] of its largest value (the series
     /// has then not converged to the bound; see the module docs).
     fn table(&self, lo: T, hi: T) -> Option<EpsTable<T>> {
         let half_w = (hi - lo) * T::half();
