@@ -91,7 +91,11 @@
 //! point. With a wideband Debye dielectric and the ε′ table: about 1 690
 //! instructions, 170 ns (3 080 and 360 ns when the statics were evaluated at
 //! ε′(f) on every call). In `f32`: 910 instructions, 110 ns constant; 1 390,
-//! 150 ns Debye (the low-frequency powers no longer go subnormal).
+//! 150 ns Debye (the low-frequency powers no longer go subnormal). Criterion's
+//! best samples (`core/benches/line_models.rs`, load 4–5 on two cores): f64
+//! 185–195 ns constant (165–175 before the table; the instruction count fell,
+//! so likely code layout, not confirmed), 230–250 ns Debye (395–420 before);
+//! f32 130–160 ns and 175–195 ns (195–250 and 365–385 before).
 //!
 //! Size: `Microstrip<f64>` ≤ 1 168 bytes, `Microstrip<f32>` ≤ 584 bytes (no heap).
 
