@@ -12,7 +12,10 @@
 //!   matched filter, lobes, levels) on a synthetic step trace of SIZE samples
 //!   (the trace is validated once, outside the timed part);
 //! * `peel64`, `peel32`: layer peeling of an impulse reflection of SIZE cells;
-//! * `fft64`, `fft32`: forward complex FFT of SIZE points (a power of two).
+//! * `fft64`, `fft32`: forward complex FFT of SIZE points (a power of two);
+//! * `ms64`, `ms32`, `msdebye64`, `msdebye32`: `Microstrip::at` at SIZE
+//!   log-spaced points from 1 kHz to 20 GHz, the two microstrips of
+//!   `core/benches/line_models.rs` (FR-4 constant, and wideband Debye).
 //!
 //! With REPEATS > 0 the workload is repeated that many times and the best time
 //! per repetition is printed as `ns_per_item <value>` (per point, sample, or
@@ -26,8 +29,11 @@ use std::hint::black_box;
 use std::time::Instant;
 
 use echoline::line::coax::Coax;
+use echoline::line::conductor::Metal;
 use echoline::line::dielectric::Dielectric;
+use echoline::line::microstrip::Microstrip;
 use echoline::line::rlgc::Rlgc;
+use echoline::line::LineModel;
 use echoline::math::complex::Cx;
 use echoline::math::fft::{fill_twiddles, Fft};
 use echoline::network::{Cascade, Load, Rlc};
@@ -132,6 +138,40 @@ fn zin_run<T: Real>(cascade: &Cascade<'_, T, 3>, n: usize, repeats: usize) -> (f
         .map(|z| z.finite().map_or(0.0, |z| z.re.to_f64_lossless()))
         .sum();
     (sum, ns)
+}
+
+/// `Microstrip::at` over a log grid 1 kHz–20 GHz (models as in
+/// core/benches/line_models.rs).
+fn microstrip<T: Real>(n: usize, repeats: usize, debye: bool) -> (f64, Option<f64>) {
+    let l = T::lit;
+    let d = if debye {
+        Dielectric::wideband_debye(l(4.4), l(0.02), l(1e9)).unwrap()
+    } else {
+        Dielectric::constant(l(4.4), l(0.02)).unwrap()
+    };
+    let m = Microstrip::new(l(3e-3), l(1.6e-3), l(35e-6), d, Some(Metal::copper())).unwrap();
+    let m = if debye {
+        m
+    } else {
+        m.with_roughness(l(1e-6)).unwrap()
+    };
+    let last = (n.max(2) - 1) as f64;
+    let freqs: Vec<T> = (0..n)
+        .map(|k| l(1e3 * (20e9f64 / 1e3).powf(k as f64 / last)))
+        .collect();
+    let mut acc = 0.0;
+    let ns = time(
+        || {
+            let mut s = T::zero();
+            for &f in &freqs {
+                s = s + m.at(black_box(f)).unwrap().gamma_per_m.re;
+            }
+            acc = black_box(s).to_f64_lossless();
+        },
+        n,
+        repeats,
+    );
+    (acc, ns)
 }
 
 /// Synthetic step trace: 50 Ω launch, a 75 Ω section from 30 % to 60 % of the
@@ -256,6 +296,10 @@ fn main() {
         "peel32" => peel::<f32>(size, repeats),
         "fft64" => fft::<f64>(size, repeats),
         "fft32" => fft::<f32>(size, repeats),
+        "ms64" => microstrip::<f64>(size, repeats, false),
+        "ms32" => microstrip::<f32>(size, repeats, false),
+        "msdebye64" => microstrip::<f64>(size, repeats, true),
+        "msdebye32" => microstrip::<f32>(size, repeats, true),
         _ => {
             eprintln!("{usage}");
             std::process::exit(2);

@@ -17,8 +17,10 @@
 #   detect  event detection (Trace::analyse_into) on a synthetic step trace, per sample
 #   peel    layer peeling: O(n^2), so the figure is per cell-layer update, with
 #           n(n+1)/2 in place of n
+#   ms      Microstrip::at, FR-4 (constant dielectric), per point; msdebye: on a wideband Debye FR-4
 #   fft     forward complex FFT of 4096 points, per transform: (I(3) - I(1)) / 2 at one size
-# Targets from the issues: zin <= 150 instructions per point (f64), detect <= 40 per sample.
+# Targets from the issues: zin <= 150 instructions per point (f64), detect <= 40 per sample,
+# every line model under 300 ns per point.
 set -euo pipefail
 
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
@@ -69,6 +71,8 @@ for t in f64 f32; do
     row zincoax "$t" 2000 4000 linear "point"
     row detect "$t" 20000 40000 linear "sample"
     row peel "$t" 256 512 triangle "cell-layer update"
+    row ms "$t" 2000 4000 linear "point"
+    row msdebye "$t" 2000 4000 linear "point"
     row fft "$t" - 4096 repeat "FFT of 4096 points"
 done
 [[ $keep == 1 ]] && echo "callgrind.out files kept in $out"

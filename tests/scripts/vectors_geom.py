@@ -183,7 +183,7 @@ def microstrip_table():
         for u in (0.1, 0.3, 1.0, 2.0, 5.0, 10.0):
             for t in (0.0, 0.02):
                 z0, ee0 = hj(u, er, t)
-                for fn in (0.0, 1.0, 5.0, 10.0, 20.0):
+                for fn in (0.0, 1e-4, 0.01, 0.1, 1.0, 5.0, 10.0, 20.0):
                     if fn == 0:
                         z, ee = z0, ee0
                     else:

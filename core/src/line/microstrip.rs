@@ -55,17 +55,49 @@
 //! the ranges above (geometry, εr, h/λ0); THIN_CONDUCTOR where t/3 < δ < 3t;
 //! HIGH_LOSS, DIFFUSIVE as for [`Rlgc`](crate::line::rlgc::Rlgc).
 //!
-//! Cost: with a constant dielectric every εr-dependent term is computed at
-//! construction; `at` then costs the dispersion (eleven `exp`, four `ln`), one
-//! `atan` with roughness, and the γ/Zc roots: about 1 600 instructions, 190 ns
-//! per point in `f64` on x86-64 (110 ns without the Zc dispersion; best of 40
-//! batches of 10 000 on a shared, loaded machine). With a wideband Debye
-//! dielectric the static part is re-evaluated at ε′(f) on every call: about
-//! 3 800 instructions, 540 ns, over the 300 ns goal; a table of the statics
-//! over the narrow ε′ range of the dielectric would remove most of it.
-//! (`core/benches/line_models.rs`.)
+//! **Wideband Debye dielectric: the ε′ table.** The statics that depend on εr
+//! (Z0, εeff0, the conductor coefficient, P2, P4, R7, R3·εr^1.674, R9's εr
+//! part, R10, R16's εr part) are tabulated at construction as Chebyshev series
+//! of degree 9 in ε′ over [ε∞, εs], of their deviations from the midpoint
+//! values: the model's ε′ is monotonic between εs (f = 0) and ε∞ (f → ∞), so
+//! every frequency falls inside. Eleven evaluations at construction (the ten
+//! Chebyshev nodes and the midpoint), then ten dot products of length ten and
+//! one `ln` (ln εeff0, from the interpolated εeff0 so that R13 and R14 see the
+//! same value) per call. The table is kept only when, for every quantity, the
+//! last two coefficients sum to at most 10⁻⁹ (f64; 16ε ≈ 1.9·10⁻⁶ in f32) of
+//! its largest value (of 1 for R9 and R16, which enter next to numbers of
+//! order 1); coefficients below a quarter of that bound over ten are dropped.
+//! Otherwise (ε′ ranges so wide, or so close to 1, that the series converges
+//! slowly, e.g. ε∞ = 1, Δε = 30), and in f32 for ε∞ < 1.05 (where R13/R14 and
+//! the filling factor amplify single-ulp differences in εeff0 to 10⁻⁴), the
+//! statics are evaluated directly at ε′(f) on every call, as before. Tested
+//! against the direct evaluation in f64 for seven fitted dielectrics (εr 1.2 …
+//! 12.9, tanδ 0.001 … 0.08), eight geometries, and eighteen (ε∞, Δε) pairs
+//! down to ε∞ = 1, from 0 Hz to 10 THz: in f64 Z0, εeff and α agree with the
+//! direct values to 1·10⁻⁸ (worst seen 2·10⁻⁹); in f32 the table's error
+//! exceeds that of the direct f32 evaluation by at most 2·10⁻⁵: far inside the
+//! Hammerstad–Jensen accuracy (0.2 % εeff, 0.03 % Z0). The table costs
+//! 112 numbers, 896 bytes in f64 (448 in f32), inside the struct, no heap.
+//! Width synthesis builds its lines without the table (one evaluation each).
 //!
-//! Size: `Microstrip<f64>` ≤ 448 bytes, `Microstrip<f32>` ≤ 224 bytes (no heap).
+//! Cost (x86-64, `f64`; wall-clock the best of 40 runs of 10 000 log-spaced
+//! points, 1 kHz–20 GHz, on a shared, loaded machine; instructions from
+//! `tests/scripts/callgrind.sh`, rows `ms` and `msdebye` of
+//! `core/examples/perf_probe.rs`): with a constant dielectric every
+//! εr-dependent term is computed at construction; `at` then costs the
+//! dispersion (at most eleven `exp`, four `ln`; fewer at low fn, where
+//! 1 − e^(−x) is a series and the R9, R11 powers are dropped), one `atan` with
+//! roughness, and the γ/Zc roots: about 1 170 instructions, 120–130 ns per
+//! point. With a wideband Debye dielectric and the ε′ table: about 1 690
+//! instructions, 170 ns (3 080 and 360 ns when the statics were evaluated at
+//! ε′(f) on every call). In `f32`: 910 instructions, 110 ns constant; 1 390,
+//! 150 ns Debye (the low-frequency powers no longer go subnormal). Criterion's
+//! best samples (`core/benches/line_models.rs`, load 4–5 on two cores): f64
+//! 185–195 ns constant (165–175 before the table; the instruction count fell,
+//! so likely code layout, not confirmed), 230–250 ns Debye (395–420 before);
+//! f32 130–160 ns and 175–195 ns (195–250 and 365–385 before).
+//!
+//! Size: `Microstrip<f64>` ≤ 1 168 bytes, `Microstrip<f32>` ≤ 584 bytes (no heap).
 
 use crate::error::{self, Error, Result};
 use crate::line::conductor::Metal;
@@ -172,6 +204,99 @@ struct Statics<T> {
     warn: Warnings,
 }
 
+impl<T: Real> Statics<T> {
+    /// The εr-dependent numbers, in the table's order.
+    fn tabulated(&self) -> [T; NQ] {
+        [
+            self.z0, self.ee0, self.k_hf, self.p2, self.p4, self.r7, self.r3_er, self.r9a,
+            self.r10, self.r16a,
+        ]
+    }
+}
+
+/// Number of Chebyshev nodes (and coefficients) of the ε′ table.
+const NT: usize = 10;
+/// Number of tabulated statics (see [`Statics::tabulated`]).
+const NQ: usize = 10;
+/// Absolute scale below which a tabulated quantity's error is judged against
+/// 1 rather than its own size: R9 and R16 − 1 (terms added to numbers of
+/// order 1). 0: judged relative to its own size.
+const FLOOR: [f64; NQ] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 1.0, 0.0, 1.0];
+/// The Chebyshev nodes cos(π(j + ½)/NT), j = 0…NT − 1.
+const NODES: [f64; NT] = [
+    0.987_688_340_595_137_8,
+    0.891_006_524_188_367_9,
+    core::f64::consts::FRAC_1_SQRT_2,
+    0.453_990_499_739_546_8,
+    0.156_434_465_040_230_9,
+    -0.156_434_465_040_230_9,
+    -0.453_990_499_739_546_8,
+    -core::f64::consts::FRAC_1_SQRT_2,
+    -0.891_006_524_188_367_9,
+    -0.987_688_340_595_137_8,
+];
+
+/// T_0(x)…T_{NT−1}(x) by the three-term recurrence.
+#[inline(always)]
+fn chebyshev<T: Real>(x: T) -> [T; NT] {
+    let mut t = [T::zero(); NT];
+    let (mut a, mut b) = (T::one(), x);
+    let two_x = x + x;
+    for v in t.iter_mut() {
+        *v = a;
+        let next = two_x * b - a;
+        a = b;
+        b = next;
+    }
+    t
+}
+
+/// The εr-dependent statics as Chebyshev series in ε′ over [ε∞, εs] of a
+/// wideband Debye dielectric (its ε′ stays in that interval at every f ≥ 0).
+#[derive(Clone, Copy, Debug, PartialEq)]
+struct EpsTable<T> {
+    mid: T,
+    inv_half: T,
+    /// The quantities at the midpoint; the series are of the deviations from
+    /// them, so rounding is relative to the (small) deviations (it matters in
+    /// f32, where a sum of ten terms of full size would cost several ulps).
+    base: [T; NQ],
+    /// coef[k][q]: the k-th Chebyshev coefficient of quantity q (c0 halved).
+    coef: [[T; NQ]; NT],
+}
+
+impl<T: Real> EpsTable<T> {
+    /// The tabulated statics at ε′ = `er` (clamped to the interval).
+    #[inline(always)]
+    fn eval(&self, er: T) -> [T; NQ] {
+        let x = ((er - self.mid) * self.inv_half)
+            .max(-T::one())
+            .min(T::one());
+        let t = chebyshev(x);
+        let mut acc = [T::zero(); NQ];
+        for (row, &tk) in self.coef.iter().zip(t.iter()) {
+            for (a, &c) in acc.iter_mut().zip(row.iter()) {
+                *a = *a + c * tk;
+            }
+        }
+        for (a, &b) in acc.iter_mut().zip(self.base.iter()) {
+            *a = *a + b;
+        }
+        acc
+    }
+}
+
+/// How the εr-dependent statics are obtained per call.
+#[derive(Clone, Copy, Debug, PartialEq)]
+enum Cache<T> {
+    /// A constant dielectric: computed once.
+    Fixed(Statics<T>),
+    /// A wideband Debye dielectric: interpolated in ε′.
+    Table(EpsTable<T>),
+    /// Computed at ε′(f) on every call (the table would not meet its bound).
+    Direct,
+}
+
 /// e^x as 2^(x·log2 e) in `f64`: libm's `exp2` costs about a third less than
 /// its `exp`, for a relative error of about |x|·ε (below 10⁻¹⁴ for the
 /// arguments here). In `f32` plain `expf` (libm's `exp2f` computes in double
@@ -200,6 +325,23 @@ impl<T: Real> Ex for T {
         } else {
             (y * self.ln()).exp()
         }
+    }
+}
+
+/// 1 − e^(−x) for x ≥ 0: the series x·(1 − x/2·(1 − x/3)) below 10⁻⁵ in
+/// f64, 10⁻² in f32 (relative error x³/24: 5·10⁻¹⁷, 5·10⁻⁸; one `exp` saved
+/// and no cancellation), else directly (relative error about ε/x).
+#[inline(always)]
+fn one_minus_exp_neg<T: Real>(x: T) -> T {
+    let switch = if T::EPS < T::lit(1e-10) {
+        T::lit(1e-5)
+    } else {
+        T::lit(1e-2)
+    };
+    if x < switch {
+        x * (T::one() - x * T::half() * (T::one() - x / T::lit(3.0)))
+    } else {
+        T::one() - (-x).ex()
     }
 }
 
@@ -263,7 +405,7 @@ pub struct Microstrip<T> {
     metal: Option<Metal<T>>,
     roughness_rms_m: T,
     r_dc: Option<T>,
-    fixed: Option<Statics<T>>,
+    cache: Cache<T>,
     cutoff_hz: T,
     thin_lo_hz: T,
     thin_hi_hz: T,
@@ -280,6 +422,30 @@ impl<T: Real> Microstrip<T> {
         thickness_m: T,
         dielectric: Dielectric<T>,
         metal: Option<Metal<T>>,
+    ) -> Result<Self> {
+        Self::build(width_m, height_m, thickness_m, dielectric, metal, true)
+    }
+
+    /// As [`Self::new`] but without the ε′ table of a wideband Debye dielectric
+    /// (eleven static evaluations saved), for a line evaluated at one or two
+    /// frequencies only, as in width synthesis. Same results within the table's bound.
+    pub(crate) fn new_untabulated(
+        width_m: T,
+        height_m: T,
+        thickness_m: T,
+        dielectric: Dielectric<T>,
+        metal: Option<Metal<T>>,
+    ) -> Result<Self> {
+        Self::build(width_m, height_m, thickness_m, dielectric, metal, false)
+    }
+
+    fn build(
+        width_m: T,
+        height_m: T,
+        thickness_m: T,
+        dielectric: Dielectric<T>,
+        metal: Option<Metal<T>>,
+        tabulate: bool,
     ) -> Result<Self> {
         let w = error::positive(width_m, "width_m")?;
         let h = error::positive(height_m, "height_m")?;
@@ -319,7 +485,7 @@ impl<T: Real> Microstrip<T> {
             metal,
             roughness_rms_m: T::zero(),
             r_dc,
-            fixed: None,
+            cache: Cache::Direct,
             cutoff_hz: T::zero(),
             thin_lo_hz,
             thin_hi_hz,
@@ -335,9 +501,15 @@ impl<T: Real> Microstrip<T> {
             T::infinity()
         };
         ms.cutoff_hz = f_ct.min(f_t);
-        if dielectric.debye().is_none() {
-            ms.fixed = Some(ms.statics(er0)?);
-        }
+        ms.cache = match dielectric.debye() {
+            None => Cache::Fixed(ms.statics(er0)?),
+            Some(_) if !tabulate => Cache::Direct,
+            Some(d) => match ms.table(d.eps_inf(), er0) {
+                Some(t) => Cache::Table(t),
+                None if d.delta_eps() <= T::zero() => Cache::Fixed(ms.statics(er0)?),
+                None => Cache::Direct,
+            },
+        };
         Ok(ms)
     }
 
@@ -352,6 +524,114 @@ impl<T: Real> Microstrip<T> {
     pub fn with_roughness(mut self, roughness_rms_m: T) -> Result<Self> {
         self.roughness_rms_m = error::non_negative(roughness_rms_m, "roughness_rms_m")?;
         Ok(self)
+    }
+
+    /// The Chebyshev table of the statics over ε′ ∈ [lo, hi], or `None` when
+    /// the interval is empty, a node fails, or the last two coefficients of a
+    /// quantity exceed [`Self::TABLE_TOL_F64`] of its largest value (the series
+    /// has then not converged to the bound; see the module docs).
+    fn table(&self, lo: T, hi: T) -> Option<EpsTable<T>> {
+        let half_w = (hi - lo) * T::half();
+        if half_w.is_nan() || half_w <= T::zero() {
+            return None;
+        }
+        // In f32, for ε∞ < 1.05 the Jansen–Kirschning ratio R13/R14 and the
+        // filling factor amplify single-ulp differences in εeff0 up to 10⁻⁴:
+        // the direct path is kept there.
+        if T::EPS > T::lit(1e-10) && lo < T::lit(1.05) {
+            return None;
+        }
+        let mid = (hi + lo) * T::half();
+        let mut coef = [[T::zero(); NQ]; NT];
+        let mut scale = [T::zero(); NQ];
+        let w = T::two() / T::from_usize(NT);
+        let base = self.statics(mid).ok()?.tabulated();
+        for &x in NODES.iter() {
+            let x = T::lit(x);
+            let v = self.statics(mid + half_w * x).ok()?.tabulated();
+            for (s, &q) in scale.iter_mut().zip(v.iter()) {
+                *s = s.max(q.abs());
+            }
+            for (row, &tk) in coef.iter_mut().zip(chebyshev(x).iter()) {
+                for ((c, &q), &b) in row.iter_mut().zip(v.iter()).zip(base.iter()) {
+                    *c = *c + w * tk * (q - b);
+                }
+            }
+        }
+        if let Some(row) = coef.first_mut() {
+            for c in row.iter_mut() {
+                *c = *c * T::half();
+            }
+        }
+        let tol = T::lit(Self::TABLE_TOL_F64).max(T::lit(16.0) * T::EPS);
+        // Each quantity's scale: its largest value, or FLOOR if larger.
+        for (s, &fl) in scale.iter_mut().zip(FLOOR.iter()) {
+            *s = s.max(T::lit(fl));
+        }
+        let mut tail = coef.iter().rev().take(2);
+        let (Some(a), Some(b)) = (tail.next(), tail.next()) else {
+            return None;
+        };
+        for ((&ca, &cb), &s) in a.iter().zip(b.iter()).zip(scale.iter()) {
+            let t = ca.abs() + cb.abs();
+            if t.is_nan() || t > tol * s || !s.is_finite() {
+                return None;
+            }
+        }
+        // Coefficients below tol/(4·NT) of the scale are dropped (tol/4 in all):
+        // no subnormal products per call (r9a is ~10⁻³⁴ for wide strips).
+        let drop = tol / T::lit(4.0 * NT as f64);
+        for row in coef.iter_mut() {
+            for (c, &s) in row.iter_mut().zip(scale.iter()) {
+                if c.abs() <= drop * s {
+                    *c = T::zero();
+                }
+            }
+        }
+        Some(EpsTable {
+            mid,
+            inv_half: T::one() / half_w,
+            base,
+            coef,
+        })
+    }
+
+    /// Acceptance bound of the table's tail coefficients, relative (f64; in
+    /// f32 it is 16 ε ≈ 1.9·10⁻⁶).
+    const TABLE_TOL_F64: f64 = 1e-9;
+
+    /// The statics at ε′ = `er` from the table.
+    #[inline(always)]
+    fn statics_from(&self, t: &EpsTable<T>, er: T) -> Result<Statics<T>> {
+        let [z0, ee0, k_hf, p2, p4, r7, r3_er, r9a, r10, r16a] = t.eval(er);
+        // ln εeff0 from the interpolated εeff0 itself: R13 and R14 nearly cancel
+        // for εeff0 near 1, and must then see the same εeff0.
+        let ln_ee0 = ee0.ln();
+        let mut warn = Warnings::NONE;
+        warn.set_if(
+            er > T::lit(18.0) || self.u > T::lit(10.0) || self.u < T::lit(0.1),
+            Warnings::OUTSIDE_FIT_RANGE,
+        );
+        Ok(Statics {
+            er,
+            z0,
+            ee0,
+            ln_ee0,
+            k_hf,
+            skin: SkinLoss::new(k_hf, self.r_dc)?,
+            p1a: self.geo.p1a,
+            p1b: self.u,
+            p2,
+            p3a: self.geo.p3a,
+            p4,
+            r7,
+            r3_er,
+            r9a,
+            r10,
+            r12: self.geo.r12,
+            r16a,
+            warn,
+        })
     }
 
     fn statics(&self, er: T) -> Result<Statics<T>> {
@@ -414,21 +694,39 @@ impl<T: Real> Microstrip<T> {
         let lnf = fnorm.ln();
         let p1 =
             st.p1a + (lit(0.6315) + lit(0.525) / (one + lit(0.0157) * fnorm).powi(20)) * st.p1b;
-        let p3 = st.p3a * (one - (-(lit(4.97) * lnf - lit(18.169_522_812_177_608)).ex()).ex());
+        // (fn/38.7)^4.97 below e^−40 leaves 0.1844 + P3·P4 unchanged in f64.
+        let a3 = lit(4.97) * lnf - lit(18.169_522_812_177_608);
+        let p3 = if a3 < lit(-40.0) {
+            T::zero()
+        } else {
+            st.p3a * one_minus_exp_neg(a3.ex())
+        };
         let base = lit(0.1844) + p3 * st.p4;
         let p = p1 * st.p2 * (lit(1.5763) * (base.ln() + lnf)).ex();
         let ee = st.er - (st.er - st.ee0) / (one + p);
         if !self.zc_dispersion {
             return (st.z0, ee, false);
         }
-        // Jansen–Kirschning Zc(f).
-        let r5 = (fnorm / lit(28.843)).powi(12);
+        // Jansen–Kirschning Zc(f). R9 and R11 are dropped where they cannot
+        // change 0.9408 − R9 or 1 + R16a·R11 in f64 (R9 < R9a·10⁻³⁶, R11 <
+        // 10⁻²⁴): no subnormal powers at low frequency (slow, and in f32 common).
         let r8 = one
             + lit(1.275)
-                * (one - (-st.r3_er * (lit(2.745) * lnf - lit(7.989_176_134_600_625)).ex()).ex());
-        let r9 = st.r9a * r5 / (one + lit(1.2992) * r5);
-        let x11 = (fnorm / lit(19.47)).powi(6);
-        let r11 = x11 / (one + lit(0.0962) * x11);
+                * one_minus_exp_neg(
+                    st.r3_er * (lit(2.745) * lnf - lit(7.989_176_134_600_625)).ex(),
+                );
+        let r9 = if st.r9a == T::zero() || fnorm < lit(28.843e-3) {
+            T::zero()
+        } else {
+            let r5 = (fnorm / lit(28.843)).powi(12);
+            st.r9a * r5 / (one + lit(1.2992) * r5)
+        };
+        let r11 = if fnorm < lit(19.47e-4) {
+            T::zero()
+        } else {
+            let x11 = (fnorm / lit(19.47)).powi(6);
+            x11 / (one + lit(0.0962) * x11)
+        };
         let r13 = lit(0.9408) * (r8 * ee.ln()).ex() - lit(0.9603);
         let r14 = (lit(0.9408) - r9) * (r8 * st.ln_ee0).ex() - lit(0.9603);
         let r15 = lit(0.707) * st.r10 * (lit(1.097) * lnf - lit(2.753_030_390_829_074)).ex();
@@ -450,9 +748,10 @@ impl<T: Real> Microstrip<T> {
 
     fn statics_at(&self, f: T) -> Result<(StRef<'_, T>, T, T)> {
         let (er, loss) = self.dielectric.eval(f);
-        let st = match &self.fixed {
-            Some(s) => StRef::Borrowed(s),
-            None => StRef::Owned(self.statics(er)?),
+        let st = match &self.cache {
+            Cache::Fixed(s) => StRef::Borrowed(s),
+            Cache::Table(t) => StRef::Owned(self.statics_from(t, er)?),
+            Cache::Direct => StRef::Owned(self.statics(er)?),
         };
         Ok((st, er, loss))
     }
@@ -694,9 +993,170 @@ mod tests {
         assert_eq!(m.at(f64::NAN), Err(Error::NonFinite("freq_hz")));
     }
 
+    /// The tabulated model's largest error (Z0, εeff, α; relative, over
+    /// 0 Hz … 10 THz) beyond that of the direct evaluation in the same
+    /// precision, both against the direct evaluation in f64 (`m64`, the same
+    /// line); `None` when no table was built. In f64 it is simply the relative
+    /// difference between table and direct evaluation.
+    fn table_vs_direct<T: Real>(m: &Microstrip<T>, m64: &Microstrip<f64>) -> Option<[f64; 3]> {
+        if !matches!(m.cache, Cache::Table(_)) {
+            return None;
+        }
+        let mut direct = *m;
+        direct.cache = Cache::Direct;
+        let mut r64 = *m64;
+        r64.cache = Cache::Direct;
+        let excess = |t: T, d: T, r: f64| {
+            let (t, d) = (t.to_f64_lossless(), d.to_f64_lossless());
+            if t == d {
+                0.0
+            } else {
+                ((t - r).abs() - (d - r).abs()).max(0.0) / r.abs()
+            }
+        };
+        let mut worst = [0.0f64; 3];
+        for k in 0..=240 {
+            let f64_hz = if k == 0 {
+                0.0
+            } else {
+                10f64.powf(k as f64 / 20.0)
+            };
+            let f = T::lit(f64_hz);
+            let (a, b) = (m.at(f).unwrap(), direct.at(f).unwrap());
+            let r = r64.at(f64_hz).unwrap();
+            let z = [m.z0_ohm(f), direct.z0_ohm(f)].map(|v| v.unwrap());
+            let e = [m.eps_eff(f), direct.eps_eff(f)].map(|v| v.unwrap());
+            worst[0] = worst[0].max(excess(z[0], z[1], r64.z0_ohm(f64_hz).unwrap()));
+            worst[1] = worst[1].max(excess(e[0], e[1], r64.eps_eff(f64_hz).unwrap()));
+            worst[2] = worst[2].max(excess(
+                a.alpha_np_per_m(),
+                b.alpha_np_per_m(),
+                r.alpha_np_per_m(),
+            ));
+            assert_eq!(a.warnings, b.warnings, "{f:?}");
+        }
+        Some(worst)
+    }
+
+    /// Copper in f64 where `metal` is some metal (the cases use copper only).
+    fn metal64<T: Real>(metal: Option<Metal<T>>) -> Option<Metal<f64>> {
+        metal.map(|_| Metal::copper())
+    }
+
+    fn table_cases<T: Real>(bound: f64) -> usize {
+        let l = T::lit;
+        let mut tabulated = 0;
+        for &(er, td) in &[
+            (4.4, 0.02),
+            (2.2, 0.001),
+            (3.5, 0.004),
+            (9.8, 0.002),
+            (12.9, 0.01),
+            (3.0, 0.08),
+            (1.2, 0.01),
+        ] {
+            let d = Dielectric::wideband_debye(l(er), l(td), l(1e9)).unwrap();
+            for &u in &[0.15, 1.0, 3.0, 20.0] {
+                for &(t, metal) in &[(0.0, None), (35e-6, Some(Metal::copper()))] {
+                    let h = 1.6e-3;
+                    let m = Microstrip::new(l(u * h), l(h), l(t), d, metal).unwrap();
+                    let d64 = Dielectric::wideband_debye(er, td, 1e9).unwrap();
+                    let m64 = Microstrip::new(u * h, h, t, d64, metal64(metal)).unwrap();
+                    if let Some(w) = table_vs_direct(&m, &m64) {
+                        tabulated += 1;
+                        assert!(
+                            w.iter().all(|&e| e <= bound),
+                            "εr {er} tanδ {td} u {u} t {t}: {w:?}"
+                        );
+                    }
+                }
+            }
+        }
+        tabulated
+    }
+
+    /// Dielectrics whose ε′ range reaches down to 1 (where √(εr − 1) in the
+    /// thickness correction is singular): tabulated or not, within the bound.
+    fn table_edge_cases<T: Real>(bound: f64) {
+        use crate::line::dielectric::WidebandDebye;
+        let l = T::lit;
+        for &de in &[1e-4, 0.01, 0.05, 0.2, 1.0, 3.0] {
+            for &ei in &[1.0, 1.001, 1.05] {
+                let d = WidebandDebye::new(l(ei), l(de), l(1e3), l(1e12)).unwrap();
+                let d = Dielectric::from_debye(d);
+                for &(t, metal) in &[(0.0, None), (35e-6, Some(Metal::copper()))] {
+                    let m = Microstrip::new(l(1e-3), l(1e-3), l(t), d, metal).unwrap();
+                    let d64 = WidebandDebye::new(ei, de, 1e3, 1e12).unwrap();
+                    let d64 = Dielectric::from_debye(d64);
+                    let m64 = Microstrip::new(1e-3, 1e-3, t, d64, metal64(metal)).unwrap();
+                    if let Some(w) = table_vs_direct(&m, &m64) {
+                        assert!(
+                            w.iter().all(|&e| e <= bound),
+                            "{} ε∞ {ei} Δε {de} t {t}: {w:?}",
+                            T::EPS.to_f64_lossless()
+                        );
+                    }
+                }
+            }
+        }
+        // No dispersion at all: the statics are computed once.
+        let d = WidebandDebye::new(l(4.0), T::zero(), l(1e3), l(1e12)).unwrap();
+        let m =
+            Microstrip::new(l(1e-3), l(1e-3), T::zero(), Dielectric::from_debye(d), None).unwrap();
+        assert!(matches!(m.cache, Cache::Fixed(_)));
+    }
+
+    #[test]
+    fn debye_table_matches_direct_evaluation() {
+        // Against the direct Hammerstad–Jensen/Jansen–Kirschning evaluation at
+        // ε′(f) in f64 (this module's own formulas): the table's documented
+        // bound (f64: relative difference; f32: excess over the direct f32 error).
+        table_edge_cases::<f64>(1e-8);
+        table_edge_cases::<f32>(2e-5);
+        let n64 = table_cases::<f64>(1e-8);
+        let n32 = table_cases::<f32>(2e-5);
+        // 7 dielectrics × 8 geometries; all but the widest ε′ ranges tabulate.
+        assert!(n64 >= 48 && n32 >= 48, "{n64} {n32}");
+        // A range too wide for the series falls back to direct evaluation.
+        let wide = Dielectric::from_debye(
+            crate::line::dielectric::WidebandDebye::new(1.0, 30.0, 1e3, 1e12).unwrap(),
+        );
+        let m = Microstrip::<f64>::new(1e-3, 1e-3, 0.0, wide, None).unwrap();
+        assert_eq!(m.cache, Cache::Direct);
+        // The FR-4 line of the benchmark tabulates in both precisions.
+        let fr4 = |f| Microstrip::new(3e-3, 1.6e-3, 35e-6, f, Some(Metal::copper())).unwrap();
+        let d64 = Dielectric::<f64>::wideband_debye(4.4, 0.02, 1e9).unwrap();
+        let d32 = Dielectric::<f32>::wideband_debye(4.4, 0.02, 1e9).unwrap();
+        assert!(matches!(fr4(d64).cache, Cache::Table(_)));
+        assert!(matches!(
+            Microstrip::new(3e-3f32, 1.6e-3, 35e-6, d32, Some(Metal::copper()))
+                .unwrap()
+                .cache,
+            Cache::Table(_)
+        ));
+    }
+
+    #[test]
+    fn one_minus_exp_neg_is_accurate_on_both_sides_of_the_switch() {
+        // Against libm's expm1 (1 − e^−x = −expm1(−x)), f64 and f32.
+        for k in 0..=200 {
+            let x = 10f64.powf(-30.0 + k as f64 * 0.15);
+            // Series below the switch; above it the cancellation, about ε/x.
+            let want = -libm::expm1(-x);
+            let tol = 4.0 * f64::EPSILON * if x < 1e-5 { 1.0 } else { 1.0 + 1.0 / x };
+            assert_relative_eq!(one_minus_exp_neg(x), want, max_relative = tol);
+            let x32 = x as f32;
+            let want32 = -libm::expm1(-(x32 as f64));
+            let tol32 = 4.0 * f32::EPSILON as f64 * if x < 1e-2 { 1.0 } else { 1.0 + 1.0 / x };
+            assert_relative_eq!(one_minus_exp_neg(x32) as f64, want32, max_relative = tol32);
+        }
+        assert_eq!(one_minus_exp_neg(0.0f64), 0.0);
+    }
+
     #[test]
     fn size_is_as_documented() {
-        assert!(core::mem::size_of::<Microstrip<f64>>() <= 448);
-        assert!(core::mem::size_of::<Microstrip<f32>>() <= 224);
+        // The ε′ table is 2 + 10·11 numbers: 896 bytes in f64, 448 in f32.
+        assert!(core::mem::size_of::<Microstrip<f64>>() <= 1168);
+        assert!(core::mem::size_of::<Microstrip<f32>>() <= 584);
     }
 }

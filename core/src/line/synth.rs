@@ -73,7 +73,7 @@ pub fn microstrip_width_m<T: Real>(
     let h = error::positive(height_m, "height_m")?;
     let t = error::non_negative(thickness_m, "thickness_m")?;
     let u = solve_log(
-        |u| Microstrip::new(u * h, h, t, dielectric, None)?.z0_ohm(f),
+        |u| Microstrip::new_untabulated(u * h, h, t, dielectric, None)?.z0_ohm(f),
         target,
         T::lit(0.01),
         T::lit(100.0),
