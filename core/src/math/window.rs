@@ -44,16 +44,25 @@ pub enum Window<T> {
     Hamming,
     /// Kaiser–Bessel with shape β ≥ 0 (β = πα; β = 0 is rectangular).
     Kaiser {
-        /// Shape parameter β, finite and ≥ 0.
+        /// Shape parameter β in [0, 1000] (practical windows use β ≤ 50; far
+        /// beyond, the scaled Bessel denominator underflows).
         beta: T,
     },
 }
+
+/// Largest Kaiser β accepted (found by fuzzing: β ≈ 1e308 made the scaled
+/// Bessel denominator 0 and the window NaN).
+pub const MAX_KAISER_BETA: f64 = 1000.0;
 
 impl<T: Real> Window<T> {
     /// Validates β and returns the Kaiser denominator e^(−β)·I0(β) (1 otherwise).
     fn check(&self) -> Result<T> {
         if let Window::Kaiser { beta } = *self {
-            return bessel_i0e(crate::error::non_negative(beta, "beta")?);
+            let beta = crate::error::non_negative(beta, "beta")?;
+            if beta > T::lit(MAX_KAISER_BETA) {
+                return Err(Error::OutOfRange("beta"));
+            }
+            return bessel_i0e(beta);
         }
         Ok(T::one())
     }
@@ -61,7 +70,8 @@ impl<T: Real> Window<T> {
     /// Sample `n` of the length-`len` symmetric window.
     ///
     /// Errors: [`Error::OutOfRange`]`("n")` unless n < len (so also for len = 0);
-    /// [`Error::NonFinite`] / [`Error::Negative`]`("beta")` for a bad Kaiser β.
+    /// [`Error::NonFinite`] / [`Error::Negative`] / [`Error::OutOfRange`]`("beta")`
+    /// for a bad Kaiser β.
     pub fn value(&self, n: usize, len: usize) -> Result<T> {
         if n >= len {
             return Err(Error::OutOfRange("n"));
@@ -230,6 +240,10 @@ mod tests {
         assert_eq!(
             Window::Kaiser { beta: -1.0f32 }.fill(&mut w),
             Err(Error::Negative("beta"))
+        );
+        assert_eq!(
+            Window::Kaiser { beta: 1.2e308f64 }.value(0, 4),
+            Err(Error::OutOfRange("beta"))
         );
         assert_eq!(
             Window::<f32>::Hann.fill(&mut w[..0]),

@@ -93,6 +93,8 @@ pub fn file_kind(file_name: &str) -> FileKind {
 /// Errors: the readers' [`Error::Parse`] (line, column, expected);
 /// [`Error::Capacity`] (`"freqs_hz"`) when the buffers are too short;
 /// [`Error::LengthMismatch`]`("gamma")` unless both buffers have one length;
+/// [`Error::BadIndex`]`("gamma", i)` when point i converts to a non-finite Γ
+/// (a Z or Y value at the reflection pole, Z = −Zref);
 /// [`touchstone::Header::s11`]'s errors.
 pub fn read_reflection<T: Real>(
     text: &str,
@@ -107,6 +109,14 @@ pub fn read_reflection<T: Real>(
     let cap = freqs_hz.len();
     let mut n = 0usize;
     let mut put = |f: T, g: Cx<T>| -> Result<()> {
+        // A point whose conversion to Γ is not finite (e.g. Z = −Zref, a
+        // reflection pole) is not a measurement: name the point.
+        if !(g.re.is_finite() && g.im.is_finite()) {
+            return Err(Error::BadIndex {
+                what: "gamma",
+                index: n,
+            });
+        }
         match (freqs_hz.get_mut(n), gamma.get_mut(n)) {
             (Some(fs), Some(gs)) => {
                 *fs = f;
@@ -186,5 +196,21 @@ mod tests {
         assert_eq!(file_kind("a.CSV"), FileKind::Csv);
         assert_eq!(file_kind("a.s2p"), FileKind::Touchstone);
         assert_eq!(file_kind("noext"), FileKind::Touchstone);
+    }
+
+    /// Found by fuzzing: a Z one-port at −Zref (normalised −1) has no finite
+    /// reflection; the reader names the point instead of returning ∞.
+    #[test]
+    fn a_point_at_the_reflection_pole_is_named() {
+        let text = "# Hz Z MA R 50\n1 0.5 0\n2 -1 0\n";
+        let mut f = [0.0f64; 4];
+        let mut g = [Cx::new(0.0, 0.0); 4];
+        assert_eq!(
+            read_reflection(text, "x.s1p", 50.0, &mut f, &mut g),
+            Err(Error::BadIndex {
+                what: "gamma",
+                index: 1
+            })
+        );
     }
 }
