@@ -84,19 +84,21 @@ pub fn run_phase<T: Bits, S: Sink>(phase: &str, s: &mut S) {
     }
 }
 
-#[inline(never)]
-fn coax_cascade_sweep<T: Bits, S: Sink>(s: &mut S) {
-    let pe = match Dielectric::wideband_debye(T::lit(2.25), T::lit(2e-4), T::lit(1e9)) {
-        Ok(d) => d,
-        Err(_) => return s.fail("coax", "dielectric"),
-    };
-    let coax = match Coax::new(
+/// Solid-PE coax (0.9/2.95 mm, copper, causal dielectric fitted at 1 GHz).
+fn solid_pe_coax<T: Bits>() -> echoline::Result<Coax<T>> {
+    let pe = Dielectric::wideband_debye(T::lit(2.25), T::lit(2e-4), T::lit(1e9))?;
+    Coax::new(
         T::lit(0.9e-3),
         T::lit(2.95e-3),
         pe,
         T::lit(5.8e7),
         T::lit(0.2e-3),
-    ) {
+    )
+}
+
+#[inline(never)]
+fn coax_cascade_sweep<T: Bits, S: Sink>(s: &mut S) {
+    let coax = match solid_pe_coax() {
         Ok(c) => c,
         Err(_) => return s.fail("coax", "new"),
     };
@@ -242,17 +244,7 @@ const DTF_POINTS: usize = 512;
 /// its peaks listed.
 #[inline(never)]
 fn distance_to_fault<T: Bits, S: Sink>(s: &mut S) {
-    let pe = match Dielectric::wideband_debye(T::lit(2.25), T::lit(2e-4), T::lit(1e9)) {
-        Ok(d) => d,
-        Err(_) => return s.fail("dtf", "dielectric"),
-    };
-    let coax = match Coax::new(
-        T::lit(0.9e-3),
-        T::lit(2.95e-3),
-        pe,
-        T::lit(5.8e7),
-        T::lit(0.2e-3),
-    ) {
+    let coax = match solid_pe_coax() {
         Ok(c) => c,
         Err(_) => return s.fail("dtf", "coax"),
     };
