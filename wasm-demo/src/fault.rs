@@ -207,11 +207,7 @@ pub fn compute_by(
         None => (t_round_s, dt),
     };
     let d = timing::distance_from_round_trip(t_used, dt_used, &v)?;
-    let kind = match v.kind {
-        VelocityKind::Factor => "factor",
-        VelocityKind::PhaseAt(_) => "phase",
-        VelocityKind::GroupAt(_) => "group",
-    };
+    let kind = v.kind.name();
     let mut j = Json::new();
     j.open("")
         .num("distance_m", d.distance_m)

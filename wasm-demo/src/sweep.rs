@@ -12,7 +12,6 @@ use echoline::sweep::dtf::{
 use echoline::sweep::grid::{window_figures, DistanceGrid, Mode};
 use echoline::sweep::peaks::{peaks_complex, peaks_real, Peaks};
 use echoline::sweep::read_reflection;
-use echoline::timing::VelocityKind;
 use echoline::units::m_to_ft;
 use echoline::{Error, Result};
 use wasm_bindgen::prelude::*;
@@ -249,11 +248,7 @@ pub fn compute(file: &SweepFile, r: &Request<'_>) -> Result<String> {
         ys.push(best.1);
     }
     let v = grid.velocity;
-    let kind = match v.kind {
-        VelocityKind::Factor => "factor",
-        VelocityKind::PhaseAt(_) => "phase",
-        VelocityKind::GroupAt(_) => "group",
-    };
+    let kind = v.kind.name();
     let mut j = Json::new();
     j.open("")
         .str(

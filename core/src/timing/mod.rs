@@ -74,6 +74,17 @@ pub enum VelocityKind<T> {
     GroupAt(T),
 }
 
+impl<T> VelocityKind<T> {
+    /// A stable machine name: `"factor"`, `"phase"` or `"group"`.
+    pub const fn name(&self) -> &'static str {
+        match self {
+            VelocityKind::Factor => "factor",
+            VelocityKind::PhaseAt(_) => "phase",
+            VelocityKind::GroupAt(_) => "group",
+        }
+    }
+}
+
 /// A propagation velocity with its range: nominal, lowest and highest, m/s.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct VelocityRange<T> {
