@@ -64,6 +64,11 @@ pub trait Real:
     fn erf(self) -> Self;
     /// The complementary error function 1 − erf, through libm in this type's own precision.
     fn erfc(self) -> Self;
+    /// 2^k for an integer-valued `k` with a normal result (f64: −1022 ≤ k ≤ 1023;
+    /// f32: −126 ≤ k ≤ 127), built from the exponent bits by adding 1.5·2^(p−1)
+    /// and shifting: only float adds and integer shifts, so loops over it
+    /// vectorise. Outside that range the result is meaningless (callers clamp).
+    fn pow2_int(k: Self) -> Self;
 
     /// c0 in m/s.
     #[inline(always)]
@@ -132,6 +137,11 @@ impl Real for f32 {
     fn erfc(self) -> Self {
         libm::erfcf(self)
     }
+    #[inline(always)]
+    fn pow2_int(k: Self) -> Self {
+        // (k + 127 + 1.5·2²³): the low 9 mantissa bits hold k + 127.
+        f32::from_bits((k + 12_583_039.0).to_bits() << 23)
+    }
 }
 
 impl Real for f64 {
@@ -164,6 +174,11 @@ impl Real for f64 {
     fn erfc(self) -> Self {
         libm::erfc(self)
     }
+    #[inline(always)]
+    fn pow2_int(k: Self) -> Self {
+        // (k + 1023 + 1.5·2⁵²): the low 12 mantissa bits hold k + 1023.
+        f64::from_bits((k + 6_755_399_441_056_767.0).to_bits() << 52)
+    }
 }
 
 #[cfg(test)]
@@ -184,5 +199,15 @@ mod tests {
         assert_eq!(<f64 as Real>::lit(0.25), 0.25f64);
         assert_eq!(<f32 as Real>::c0(), 299_792_458.0f32);
         assert_eq!(<f64 as Real>::from_usize(7), 7.0);
+    }
+
+    #[test]
+    fn pow2_int_builds_exact_powers() {
+        for k in -1022..=1023 {
+            assert_eq!(<f64 as Real>::pow2_int(k as f64), 2f64.powi(k), "{k}");
+        }
+        for k in -126..=127 {
+            assert_eq!(<f32 as Real>::pow2_int(k as f32), 2f32.powi(k), "{k}");
+        }
     }
 }

@@ -264,6 +264,14 @@ impl<T: Real> LineModel<T> for Coax<T> {
     ) -> Result<()> {
         self.rlgc.propagation_into(freqs_hz, gamma_per_m, zc_ohm)
     }
+    #[inline]
+    fn propagation_lanes(
+        &self,
+        freqs_hz: &[T],
+        out: &mut crate::line::PropagationLanes<T>,
+    ) -> Result<()> {
+        self.rlgc.propagation_lanes(freqs_hz, out)
+    }
 }
 
 #[cfg(test)]

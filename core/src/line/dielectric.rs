@@ -335,6 +335,15 @@ impl<T: Real> Dielectric<T> {
         }
     }
 
+    /// (ε′, ε″) when they do not depend on frequency (the constant model).
+    #[inline]
+    pub(crate) fn constant_parts(&self) -> Option<(T, T)> {
+        match &self.kind {
+            Kind::Constant { eps_re, eps_loss } => Some((*eps_re, *eps_loss)),
+            Kind::Debye(_) => None,
+        }
+    }
+
     /// The complex relative permittivity ε′ − jε″ at `freq_hz` ≥ 0, without the
     /// conductivity term. (For the constant model with tanδ > 0 the value at
     /// f = 0 is the same constant, which is part of why it is not causal.)

@@ -271,6 +271,74 @@ impl<T: Real> LinePoint<T> {
     }
 }
 
+/// Frequencies evaluated together by [`LineModel::propagation_lanes`] (and by
+/// the cascade's sweeps).
+pub const LANES: usize = 16;
+
+/// γ and Zc at a block of up to [`LANES`] frequencies, part by part (one array
+/// per real part, so that the cascade's loops over them vectorise). Written by
+/// [`LineModel::propagation_lanes`]. Size: 4·[`LANES`] scalars and [`LANES`]
+/// flags (528 bytes in `f64`, 272 in `f32`).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct PropagationLanes<T> {
+    /// Re γ = α, Np/m.
+    pub gamma_re: [T; LANES],
+    /// Im γ = β, rad/m.
+    pub gamma_im: [T; LANES],
+    /// Re Zc, Ω (meaningful where `zc_ok`).
+    pub zc_re: [T; LANES],
+    /// Im Zc, Ω (meaningful where `zc_ok`).
+    pub zc_im: [T; LANES],
+    /// `true` where Zc is finite and non-zero.
+    pub zc_ok: [bool; LANES],
+}
+
+impl<T: Real> PropagationLanes<T> {
+    /// All zero, no valid Zc.
+    pub fn new() -> Self {
+        let z = [T::zero(); LANES];
+        Self {
+            gamma_re: z,
+            gamma_im: z,
+            zc_re: z,
+            zc_im: z,
+            zc_ok: [false; LANES],
+        }
+    }
+
+    /// Stores lane `i` (ignored past [`LANES`]) from a complex γ and an [`Impedance`].
+    #[inline]
+    pub fn set(&mut self, i: usize, gamma: Cx<T>, zc: Impedance<T>) {
+        let (Some(gr), Some(gi), Some(zr), Some(zi), Some(ok)) = (
+            self.gamma_re.get_mut(i),
+            self.gamma_im.get_mut(i),
+            self.zc_re.get_mut(i),
+            self.zc_im.get_mut(i),
+            self.zc_ok.get_mut(i),
+        ) else {
+            return;
+        };
+        *gr = gamma.re;
+        *gi = gamma.im;
+        let (re, im, good) = match zc {
+            Impedance::Finite(z) => {
+                let m = z.re.abs() + z.im.abs();
+                (z.re, z.im, m > T::zero() && m <= T::max_value())
+            }
+            Impedance::Open => (T::zero(), T::zero(), false),
+        };
+        *zr = re;
+        *zi = im;
+        *ok = good;
+    }
+}
+
+impl<T: Real> Default for PropagationLanes<T> {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
 /// A line model: anything that can give Z, Y, γ and Zc at a frequency.
 ///
 /// Implementations validate their parameters at construction, so `at` fails only
@@ -303,6 +371,24 @@ pub trait LineModel<T: Real> {
             let p = self.at(*f)?;
             *g = p.gamma_per_m;
             *z = p.zc_ohm;
+        }
+        Ok(())
+    }
+
+    /// γ and Zc at each of `freqs_hz` (at most [`LANES`], else
+    /// [`Error::LengthMismatch`] `"freqs_hz"`; each finite and ≥ 0, else the
+    /// error of [`LineModel::at`]) into the first `freqs_hz.len()` lanes of
+    /// `out`: the same values as [`LineModel::propagation_into`], laid out for
+    /// the cascade's vectorised sweep. The default calls `at` per frequency;
+    /// [`rlgc::Rlgc`] (and the models built on it) evaluate the block in loops
+    /// that the compiler vectorises.
+    fn propagation_lanes(&self, freqs_hz: &[T], out: &mut PropagationLanes<T>) -> Result<()> {
+        if freqs_hz.len() > LANES {
+            return Err(Error::LengthMismatch("freqs_hz"));
+        }
+        for (i, f) in freqs_hz.iter().enumerate() {
+            let p = self.at(*f)?;
+            out.set(i, p.gamma_per_m, p.zc_ohm);
         }
         Ok(())
     }

@@ -41,7 +41,7 @@
 use crate::error::{self, Error, Result};
 use crate::line::conductor::Conductor;
 use crate::line::dielectric::Dielectric;
-use crate::line::{LineModel, LinePoint, Warnings};
+use crate::line::{LineModel, LinePoint, PropagationLanes, Warnings, LANES};
 use crate::math::complex::Cx;
 use crate::scalar::Real;
 use crate::value::Impedance;
@@ -362,6 +362,114 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         Ok(point)
     }
 
+    /// As [`LineModel::propagation_into`], in loops over the block's lanes:
+    /// Z and Y (conductors and a wideband dielectric lane by lane, the rest
+    /// vectorised), then the principal root of `gamma_zc_fast` with its two
+    /// square roots in loops of their own (`libm`'s square root is an
+    /// instruction the vectoriser cannot see through, and would otherwise keep
+    /// the whole loop scalar). Lanes outside the root's safe bounds are redone
+    /// by [`LinePoint::from_zy`]. Bit for bit the values of `propagation_into`.
+    fn propagation_lanes(&self, freqs_hz: &[T], out: &mut PropagationLanes<T>) -> Result<()> {
+        let n = freqs_hz.len();
+        if n > LANES {
+            return Err(Error::LengthMismatch("freqs_hz"));
+        }
+        let mut f = [T::zero(); LANES];
+        for (d, s) in f.iter_mut().zip(freqs_hz) {
+            if !(*s >= T::zero() && *s <= T::max_value()) {
+                error::non_negative(*s, "freq_hz")?;
+            }
+            *d = *s;
+        }
+        let mut zr = [self.r0; LANES];
+        let mut zi = [T::zero(); LANES];
+        let mut yr = [T::zero(); LANES];
+        let mut yi = [T::zero(); LANES];
+        for i in 0..LANES {
+            zi[i] = self.two_pi_l * f[i];
+        }
+        if self.has_conductor {
+            // In the order of `z_of`: (R0 + jωL) + Z_int,1 + Z_int,2.
+            for i in 0..LANES {
+                for c in self.conductors.iter().flatten() {
+                    let e = c.eval(f[i]);
+                    zr[i] = zr[i] + e.re;
+                    zi[i] = zi[i] + e.im;
+                }
+            }
+        }
+        match self.dielectric.constant_parts() {
+            Some((er, loss)) => {
+                for i in 0..LANES {
+                    let wc = self.two_pi_c * f[i];
+                    yr[i] = self.g_dc + wc * loss;
+                    yi[i] = wc * er;
+                }
+            }
+            None => {
+                for i in 0..LANES {
+                    let (er, loss) = self.dielectric.eval(f[i]);
+                    let wc = self.two_pi_c * f[i];
+                    yr[i] = self.g_dc + wc * loss;
+                    yi[i] = wc * er;
+                }
+            }
+        }
+        // p = ZY, |p|² and the bounds test (as `gamma_zc_fast`).
+        let mut pr = [T::zero(); LANES];
+        let mut pi = [T::zero(); LANES];
+        let mut m = [T::zero(); LANES];
+        let mut fast = [false; LANES];
+        for i in 0..LANES {
+            pr[i] = zr[i] * yr[i] - zi[i] * yi[i];
+            pi[i] = zr[i] * yi[i] + zi[i] * yr[i];
+            let (a, b) = (pr[i].abs(), pi[i].abs());
+            let big = if a > b { a } else { b };
+            fast[i] = big > self.safe_lo && big < self.safe_hi;
+            m[i] = pr[i] * pr[i] + pi[i] * pi[i];
+        }
+        for v in m.iter_mut() {
+            *v = v.sqrt();
+        }
+        let mut t = [T::zero(); LANES];
+        for i in 0..LANES {
+            t[i] = T::half() * (pr[i].abs() + m[i]);
+        }
+        for v in t.iter_mut() {
+            *v = v.sqrt();
+        }
+        for i in 0..LANES {
+            let s = pr[i].abs() + m[i];
+            let inv = T::one() / (s * m[i]);
+            let small = pi[i].abs() * t[i] * (m[i] * inv);
+            let inv_m = s * inv;
+            let neg_im = pi[i].is_sign_negative();
+            let (gr, gi) = if pr[i] >= T::zero() {
+                (t[i], if neg_im { -small } else { small })
+            } else {
+                (small, if neg_im { -t[i] } else { t[i] })
+            };
+            // Zc = Z·conj(γ)/|ZY|.
+            let cr = (zr[i] * gr + zi[i] * gi) * inv_m;
+            let ci = (zi[i] * gr - zr[i] * gi) * inv_m;
+            out.gamma_re[i] = gr;
+            out.gamma_im[i] = gi;
+            out.zc_re[i] = cr;
+            out.zc_im[i] = ci;
+            let mag = cr.abs() + ci.abs();
+            out.zc_ok[i] = mag > T::zero() && mag <= T::max_value();
+        }
+        for i in 0..LANES {
+            if i < n && !fast[i] {
+                let z = Cx::new(zr[i], zi[i]);
+                let y = Cx::new(yr[i], yi[i]);
+                let p = LinePoint::from_zy(f[i], z, y, self.zc_dc)?;
+                out.set(i, p.gamma_per_m, p.zc_ohm);
+            }
+        }
+        Ok(())
+    }
+
     /// As [`LineModel::at`] without warnings, one call per block.
     fn propagation_into(
         &self,
@@ -563,6 +671,93 @@ mod tests {
     fn propagation_block_equals_at() {
         block_equals_at::<f64>();
         block_equals_at::<f32>();
+    }
+
+    /// The lane layout gives bit for bit `at`'s γ and Zc, lane by lane, for
+    /// full and partial blocks, with DC (no leakage: Zc open, not `zc_ok`),
+    /// a wideband Debye dielectric, and lanes outside the root's fast bounds.
+    fn lanes_equal_at<T: Real>() {
+        let cu = Metal::<T>::copper();
+        let d = Dielectric::constant(T::lit(2.25), T::lit(2e-4)).unwrap();
+        let debye = Dielectric::wideband_debye(T::lit(4.3), T::lit(0.02), T::lit(1e9)).unwrap();
+        let lines = [
+            Rlgc::<T>::constant(T::lit(0.5), T::lit(250e-9), T::lit(1e-5), T::lit(100e-12))
+                .unwrap(),
+            Rlgc::<T>::constant(T::lit(0.1), T::lit(250e-9), T::zero(), T::lit(100e-12)).unwrap(),
+            Rlgc::builder(T::lit(2e-7), T::lit(5e-11))
+                .dielectric(d)
+                .conductor(Conductor::round_wire(cu, T::lit(0.5e-3)).unwrap())
+                .build()
+                .unwrap(),
+            Rlgc::builder(T::lit(2e-7), T::lit(5e-11))
+                .dielectric(debye)
+                .conductor(Conductor::round_wire(cu, T::lit(0.5e-3)).unwrap())
+                .build()
+                .unwrap(),
+        ];
+        let mut freqs = [T::zero(); LANES];
+        for (i, f) in freqs.iter_mut().enumerate() {
+            // 0, 10 Hz, … up to ~1e13 Hz: DC, the skin transition, the fast
+            // range and beyond.
+            *f = if i == 0 {
+                T::zero()
+            } else {
+                T::lit(10.0) * T::lit(10.0).powi(i as i32 - 1) * T::lit(0.73)
+            };
+        }
+        for line in &lines {
+            for n in [LANES, 5, 1] {
+                let mut out = PropagationLanes::new();
+                line.propagation_lanes(&freqs[..n], &mut out).unwrap();
+                for (i, f) in freqs.iter().take(n).enumerate() {
+                    let p = line.at(*f).unwrap();
+                    assert_eq!(Cx::new(out.gamma_re[i], out.gamma_im[i]), p.gamma_per_m);
+                    match p.zc_ohm {
+                        Impedance::Finite(z) if z.re != T::zero() || z.im != T::zero() => {
+                            assert!(out.zc_ok[i]);
+                            assert_eq!(Cx::new(out.zc_re[i], out.zc_im[i]), z);
+                        }
+                        _ => assert!(!out.zc_ok[i]),
+                    }
+                }
+            }
+            let mut out = PropagationLanes::new();
+            let long = [T::one(); LANES + 1];
+            assert_eq!(
+                line.propagation_lanes(&long, &mut out),
+                Err(Error::LengthMismatch("freqs_hz"))
+            );
+            assert_eq!(
+                line.propagation_lanes(&[T::one(), -T::one()], &mut out),
+                Err(Error::Negative("freq_hz"))
+            );
+            assert_eq!(
+                line.propagation_lanes(&[T::infinity()], &mut out),
+                Err(Error::NonFinite("freq_hz"))
+            );
+        }
+        // The default (lane by lane through `at`).
+        let ll = Lossless::<T>::new(T::lit(75.0), T::lit(0.66)).unwrap();
+        let mut out = PropagationLanes::new();
+        ll.propagation_lanes(&freqs[..3], &mut out).unwrap();
+        for (i, f) in freqs.iter().take(3).enumerate() {
+            let p = ll.at(*f).unwrap();
+            assert_eq!(Cx::new(out.gamma_re[i], out.gamma_im[i]), p.gamma_per_m);
+            assert_eq!(
+                Impedance::Finite(Cx::new(out.zc_re[i], out.zc_im[i])),
+                p.zc_ohm
+            );
+        }
+        assert_eq!(
+            ll.propagation_lanes(&[T::one(); LANES + 1], &mut out),
+            Err(Error::LengthMismatch("freqs_hz"))
+        );
+    }
+
+    #[test]
+    fn propagation_lanes_equal_at() {
+        lanes_equal_at::<f64>();
+        lanes_equal_at::<f32>();
     }
 
     #[test]

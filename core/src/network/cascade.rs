@@ -35,8 +35,9 @@
 use heapless::Vec;
 
 use crate::error::{self, Error, Result};
-use crate::line::LineModel;
+use crate::line::{LineModel, PropagationLanes};
 use crate::math::complex::{self, Cx};
+use crate::math::special::{exp_neg_poly, sin_cos_turns};
 use crate::scalar::Real;
 use crate::value::Impedance;
 
@@ -230,7 +231,7 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             let (Some(fs), Some(os)) = (freqs_hz.get(start..end), out.get_mut(start..end)) else {
                 break;
             };
-            self.walk_block::<SWEEP_BLOCK>(fs, load, os)?;
+            self.walk_block(fs, load, os)?;
             start = end;
         }
         Ok(())
@@ -238,27 +239,46 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
 
     fn zin_checked(&self, f: T, load: &Load<T>) -> Result<Impedance<T>> {
         let mut out = [Impedance::Open];
-        self.walk_block::<1>(&[f], load, &mut out)?;
+        self.walk_block(&[f], load, &mut out)?;
         let [z] = out;
         Ok(z)
     }
 
-    /// The load-to-input walk for up to `B` validated frequencies (`B` = 1 for one point).
-    fn walk_block<const B: usize>(
-        &self,
-        freqs: &[T],
-        load: &Load<T>,
-        out: &mut [Impedance<T>],
-    ) -> Result<()> {
-        let zero = Cx::new(T::zero(), T::zero());
-        let one = Cx::new(T::one(), T::zero());
-        let mut state = [(zero, zero); B];
-        for (st, f) in state.iter_mut().zip(freqs.iter()) {
-            *st = match load.impedance_unchecked(*f) {
-                Impedance::Open => (one, zero),
-                Impedance::Finite(z) => (z, one),
-            };
+    /// The load-to-input walk for up to [`SWEEP_BLOCK`] validated frequencies
+    /// (one for a single point), the state (n, d) kept part by part in arrays.
+    /// Per line section: γ and Zc from [`LineModel::propagation_lanes`], then
+    /// one loop over all lanes without branches or calls (e^{−2γl} by
+    /// [`exp_neg_poly`] and [`sin_cos_turns`], the reflection step, the
+    /// range test of `renormalise`), which the compiler vectorises; then a
+    /// scalar pass over the few lanes that need more: a Zc that is not finite
+    /// and non-zero (the section's ABCD map), or a state to rescale.
+    fn walk_block(&self, freqs: &[T], load: &Load<T>, out: &mut [Impedance<T>]) -> Result<()> {
+        let n = freqs.len().min(SWEEP_BLOCK).min(out.len());
+        let z0 = [T::zero(); SWEEP_BLOCK];
+        let mut f = z0;
+        for (d, s) in f.iter_mut().zip(freqs) {
+            *d = *s;
         }
+        let (mut nr, mut ni, mut dr, mut di) = (z0, z0, z0, z0);
+        // Constant loop bounds (not `0..n`) keep the indexing provably in
+        // range at every opt-level (the firmware's no-panic proof).
+        for i in 0..SWEEP_BLOCK {
+            if i >= n {
+                break;
+            }
+            match load.impedance_unchecked(f[i]) {
+                Impedance::Open => nr[i] = T::one(),
+                Impedance::Finite(z) => {
+                    nr[i] = z.re;
+                    ni[i] = z.im;
+                    dr[i] = T::one();
+                }
+            }
+        }
+        let mut prop = PropagationLanes::new();
+        let eps8 = T::lit(8.0) * T::EPS;
+        let lo = T::lit(2.328_306_436_538_696_3e-10); // 2⁻³²
+        let hi = T::lit(4_294_967_296.0); // 2³²
         for e in self.elements.iter().rev() {
             match e {
                 Element::Line { model, length_m } => {
@@ -266,57 +286,86 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                     if l == T::zero() {
                         continue;
                     }
-                    // γ and Zc at every frequency of the block in one call; then
-                    // e^{−2γl} and the reflection step per frequency (independent
-                    // chains that overlap in the pipeline). A section without a
-                    // finite non-zero Zc is evaluated again in full and applied by
-                    // its ABCD map.
-                    let mut gammas = [zero; B];
-                    let mut zcs = [Impedance::Open; B];
-                    model.propagation_into(freqs, &mut gammas, &mut zcs)?;
-                    for (((st, g), zc), f) in state
-                        .iter_mut()
-                        .zip(gammas.iter())
-                        .zip(zcs.iter())
-                        .zip(freqs)
-                    {
-                        match *zc {
-                            // 0 < |Re| + |Im| ≤ max: finite and non-zero (NaN fails).
-                            Impedance::Finite(zc)
-                                if zc.re.abs() + zc.im.abs() > T::zero()
-                                    && zc.re.abs() + zc.im.abs() <= T::max_value() =>
-                            {
-                                // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
-                                let e = complex::exp_neg_turns(
-                                    T::two() * g.re * l,
-                                    g.im * l * T::FRAC_1_PI(),
-                                );
-                                *st = line_step(*st, zc, e)?;
-                            }
-                            _ => {
-                                let m = Abcd::line(&model.at(*f)?, l)?;
-                                let (n, d) = *st;
-                                *st = normalise(m.a * n + m.b * d, snap_sum(m.c * n, m.d * d))?;
-                            }
+                    let fs = f.get(..n).unwrap_or(&[]);
+                    model.propagation_lanes(fs, &mut prop)?;
+                    let (mut xr, mut xi, mut yr, mut yi) = (z0, z0, z0, z0);
+                    let mut kept = [false; SWEEP_BLOCK];
+                    for i in 0..SWEEP_BLOCK {
+                        // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
+                        let m = exp_neg_poly(T::two() * prop.gamma_re[i] * l);
+                        let (sn, cs) = sin_cos_turns(-(prop.gamma_im[i] * l * T::FRAC_1_PI()));
+                        let (er, ei) = (m * cs, m * sn);
+                        let (cr, ci) = (prop.zc_re[i], prop.zc_im[i]);
+                        // As `line_step`: Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e.
+                        let zdr = cr * dr[i] - ci * di[i];
+                        let zdi = cr * di[i] + ci * dr[i];
+                        let (gnr, gni) = (nr[i] - zdr, ni[i] - zdi);
+                        let (gdr, gdi) = (nr[i] + zdr, ni[i] + zdi);
+                        let ger = gnr * er - gni * ei;
+                        let gei = gnr * ei + gni * er;
+                        let (ddr, ddi) = (gdr - ger, gdi - gei);
+                        let tiny = eps8
+                            * max_fast(
+                                max_fast(gdr.abs(), gdi.abs()),
+                                max_fast(ger.abs(), gei.abs()),
+                            );
+                        let open = max_fast(ddr.abs(), ddi.abs()) <= tiny;
+                        let ddr = if open { T::zero() } else { ddr };
+                        let ddi = if open { T::zero() } else { ddi };
+                        let (sr, si) = (gdr + ger, gdi + gei);
+                        let nnr = cr * sr - ci * si;
+                        let nni = cr * si + ci * sr;
+                        xr[i] = nnr;
+                        xi[i] = nni;
+                        yr[i] = ddr;
+                        yi[i] = ddi;
+                        let msum = (nnr.abs() + nni.abs()) + (ddr.abs() + ddi.abs());
+                        kept[i] = msum >= lo && msum <= hi;
+                    }
+                    for i in 0..SWEEP_BLOCK {
+                        if i >= n {
+                            break;
+                        }
+                        if !prop.zc_ok[i] {
+                            // No finite non-zero Zc (e.g. DC without leakage): the ABCD map.
+                            let m = Abcd::line(&model.at(f[i])?, l)?;
+                            let (a, b) = (Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]));
+                            let (p, q) = normalise(m.a * a + m.b * b, snap_sum(m.c * a, m.d * b))?;
+                            (xr[i], xi[i], yr[i], yi[i]) = (p.re, p.im, q.re, q.im);
+                        } else if !kept[i] {
+                            let (p, q) = normalise(Cx::new(xr[i], xi[i]), Cx::new(yr[i], yi[i]))?;
+                            (xr[i], xi[i], yr[i], yi[i]) = (p.re, p.im, q.re, q.im);
                         }
                     }
+                    (nr, ni, dr, di) = (xr, xi, yr, yi);
                 }
                 _ => {
-                    for (st, f) in state.iter_mut().zip(freqs.iter()) {
-                        step(e, *f, st)?;
+                    for i in 0..SWEEP_BLOCK {
+                        if i >= n {
+                            break;
+                        }
+                        let mut st = (Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]));
+                        step(e, f[i], &mut st)?;
+                        (nr[i], ni[i], dr[i], di[i]) = (st.0.re, st.0.im, st.1.re, st.1.im);
                     }
                 }
             }
         }
-        for (o, st) in out.iter_mut().zip(state.iter()) {
-            *o = ratio_fast(st.0, st.1)?;
+        for (((o, (a, b)), c), d) in out
+            .iter_mut()
+            .zip(nr.iter().zip(ni.iter()))
+            .zip(dr.iter())
+            .zip(di.iter())
+            .take(n)
+        {
+            *o = ratio_fast(Cx::new(*a, *b), Cx::new(*c, *d))?;
         }
         Ok(())
     }
 }
 
 /// Frequencies processed together by [`Cascade::input_impedance_sweep`].
-pub const SWEEP_BLOCK: usize = 16;
+pub const SWEEP_BLOCK: usize = crate::line::LANES;
 
 /// One element of the walk: (n, d) at the element's load side → its input side,
 /// renormalised so that max |part| = 1.
@@ -353,26 +402,6 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
     }
     *st = normalise(n, d)?;
     Ok(())
-}
-
-/// Across a line of characteristic impedance `zc` with e = e^{−2γl}:
-/// Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e, Zin = Zc(1 + Γin)/(1 − Γin),
-/// kept as a ratio (n', d'). A 1 − Γin within 8ε of its terms is exactly 0.
-#[inline(always)]
-fn line_step<T: Real>(st: (Cx<T>, Cx<T>), zc: Cx<T>, e: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
-    let (n, d) = st;
-    let zd = zc * d;
-    let gn = n - zd; // numerator of Γ_L
-    let gd = n + zd; // denominator of Γ_L
-    let ge = gn * e; // numerator of Γin (same denominator)
-    let dd = gd - ge;
-    let tiny = T::lit(8.0) * T::EPS * max_fast(norm_fast(gd), norm_fast(ge));
-    let dd = if norm_fast(dd) <= tiny {
-        Cx::new(T::zero(), T::zero())
-    } else {
-        dd
-    };
-    renormalise(zc * (gd + ge), dd)
 }
 
 /// max(|re|, |im|) by plain comparisons (no NaN handling: `f64::max` spends
@@ -413,20 +442,6 @@ fn ratio_fast<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<Impedance<T>> {
     ratio_to_impedance(n, d)
 }
 
-/// As [`normalise`], but leaves (n, d) as they are while the sum of the moduli
-/// of the four parts is within [2⁻³², 2³²] (finite, far from overflow in the
-/// next step): scaling both by the same factor does not change the ratio, so
-/// the division and the finiteness checks are only paid outside that range.
-/// A NaN or infinity makes the sum fail both comparisons (a `max` would drop a NaN).
-#[inline(always)]
-fn renormalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
-    let m = (n.re.abs() + n.im.abs()) + (d.re.abs() + d.im.abs());
-    if m >= T::lit(2.328_306_436_538_696_3e-10) && m <= T::lit(4_294_967_296.0) {
-        return Ok((n, d));
-    }
-    normalise(n, d)
-}
-
 /// Scales (n, d) so that the largest part has modulus 1.
 #[inline(always)]
 fn normalise<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<(Cx<T>, Cx<T>)> {
@@ -446,6 +461,78 @@ mod tests {
     use super::*;
     use crate::line::lossless::Lossless;
     use crate::network::load::Rlc;
+
+    /// The vectorised block walk against the textbook formula lane by lane, in
+    /// one block that mixes the special lanes: DC on a line without leakage
+    /// (Zc open: the ABCD map), the quarter-wave point of a lossless line
+    /// (Zin = Zc²/Z_L, Pozar 2012, §2.5), a section of αl ≈ 200 Np (Zin → Zc
+    /// without overflow) and ordinary lossy lanes; and sweep = point by point.
+    fn block_lanes<T: Real>(tol: T) {
+        use crate::line::rlgc::Rlgc;
+        let v = T::lit(2e8);
+        let quarter = Lossless::<T>::new(T::lit(50.0), T::lit(2.0 / 2.997_924_58)).unwrap();
+        let leaky =
+            Rlgc::<T>::constant(T::lit(0.1), T::lit(250e-9), T::zero(), T::lit(100e-12)).unwrap();
+        let lossy =
+            Rlgc::<T>::constant(T::lit(400.0), T::lit(250e-9), T::lit(0.04), T::lit(100e-12))
+                .unwrap();
+        let load = Load::Resistor(T::lit(100.0));
+        // Quarter wave at 50 MHz: l = v/(4f) = 1 m.
+        let mut c: Cascade<'_, T, 1> = Cascade::new();
+        c.push_line(&quarter, T::one()).unwrap();
+        let f_q = v / T::lit(4.0);
+        let mut freqs = [T::zero(); SWEEP_BLOCK + 3];
+        for (i, f) in freqs.iter_mut().enumerate() {
+            *f = f_q * T::from_usize(i + 1) / T::from_usize(4);
+        }
+        let mut out = [Impedance::Open; SWEEP_BLOCK + 3];
+        c.input_impedance_sweep(&freqs, &load, &mut out).unwrap();
+        for (f, z) in freqs.iter().zip(out.iter()) {
+            assert_eq!(*z, c.input_impedance(*f, &load).unwrap());
+        }
+        let zq = out[3].finite().unwrap(); // f = f_q
+        assert!((zq.re - T::lit(25.0)).abs() < tol * T::lit(25.0), "{zq:?}");
+        assert!(zq.im.abs() < tol * T::lit(25.0));
+        // DC lane (leaky line without leakage: Zc = ∞) beside lossy lanes.
+        let mut c: Cascade<'_, T, 2> = Cascade::new();
+        c.push_line(&leaky, T::lit(3.0)).unwrap();
+        c.push_line(&lossy, T::lit(2.0)).unwrap();
+        let mut freqs = [T::zero(); SWEEP_BLOCK];
+        for (i, f) in freqs.iter_mut().enumerate().skip(1) {
+            *f = T::lit(1e6) * T::from_usize(i * i);
+        }
+        let mut out = [Impedance::Open; SWEEP_BLOCK];
+        c.input_impedance_sweep(&freqs, &load, &mut out).unwrap();
+        for (f, z) in freqs.iter().zip(out.iter()) {
+            assert_eq!(*z, c.input_impedance(*f, &load).unwrap());
+            // Textbook: Zin = Zc (ZL + Zc tanh γl)/(Zc + ZL tanh γl), section by section.
+            let mut zl = Cx::new(T::lit(100.0), T::zero());
+            for (m, l) in [(&lossy, T::lit(2.0)), (&leaky, T::lit(3.0))] {
+                let p = m.at(*f).unwrap();
+                zl = match p.zc_ohm {
+                    Impedance::Finite(zc) => {
+                        let t = complex::tanh(p.gamma_per_m * l);
+                        zc * (zl + zc * t) / (zc + zl * t)
+                    }
+                    // DC without leakage: a series resistance R·l.
+                    Impedance::Open => zl + p.z_ohm_per_m * l,
+                };
+            }
+            let got = z.finite().unwrap();
+            let err = complex::abs(got - zl) / complex::abs(zl);
+            assert!(err < tol, "f = {f:?}: {got:?} vs {zl:?}");
+        }
+        // αl at 1 GHz: R/(2Zc) ≈ 4 Np/m + G·Zc/2 ≈ 1 Np/m over 2 m ≈ 10 Np,
+        // at 225 MHz still above 8 Np: Zin is the lossy section's Zc.
+        let p = lossy.at(freqs[SWEEP_BLOCK - 1]).unwrap();
+        assert!(p.gamma_per_m.re * T::lit(2.0) > T::lit(8.0));
+    }
+
+    #[test]
+    fn block_walk_handles_special_lanes() {
+        block_lanes::<f64>(1e-12);
+        block_lanes::<f32>(2e-4);
+    }
 
     #[test]
     fn element_sizes_are_as_documented() {
@@ -579,22 +666,20 @@ mod tests {
     }
 
     #[test]
-    fn renormalise_rescales_and_rejects_non_finite() {
-        let (n, d) = renormalise(Cx::new(1e20f64, 0.0), Cx::new(0.0, 3e19)).unwrap();
+    fn normalise_rescales_and_rejects_non_finite() {
+        let (n, d) = normalise(Cx::new(1e20f64, 0.0), Cx::new(0.0, 3e19)).unwrap();
         assert_eq!(n, Cx::new(1.0, 0.0));
         assert!((d.im - 0.3).abs() < 1e-15);
-        let kept = renormalise(Cx::new(2.0f32, 0.0), Cx::new(0.5, 0.0)).unwrap();
-        assert_eq!(kept, (Cx::new(2.0, 0.0), Cx::new(0.5, 0.0)));
         assert_eq!(
-            renormalise(Cx::new(f64::NAN, 1.0), Cx::new(1.0, 0.0)),
+            normalise(Cx::new(f64::NAN, 1.0), Cx::new(1.0, 0.0)),
             Err(Error::NonFinite("input_impedance"))
         );
         assert_eq!(
-            renormalise(Cx::new(1.0, 0.0), Cx::new(f32::INFINITY, 0.0)),
+            normalise(Cx::new(1.0, 0.0), Cx::new(f32::INFINITY, 0.0)),
             Err(Error::NonFinite("input_impedance"))
         );
         assert_eq!(
-            renormalise(Cx::new(0.0f64, 0.0), Cx::new(0.0, 0.0)),
+            normalise(Cx::new(0.0f64, 0.0), Cx::new(0.0, 0.0)),
             Err(Error::Undefined("input_impedance"))
         );
     }
