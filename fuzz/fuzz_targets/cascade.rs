@@ -1,6 +1,6 @@
 //! Cascades of arbitrary elements evaluated at arbitrary frequencies: input
-//! impedance, reflection figures, S/Z/Y parameters. Results or typed errors, no
-//! panic, no NaN in a valid result.
+//! impedance (one point and a sweep, which must agree), reflection figures,
+//! S/Z/Y parameters. Results or typed errors, no panic, no NaN in a valid result.
 #![no_main]
 
 use echoline::line::lossless::Lossless;
@@ -76,6 +76,29 @@ fuzz_target!(|data: &[u8]| {
             let m = p.gamma.norm();
             let _ = vswr(m);
             let _ = return_loss_db(m);
+        }
+    }
+    // A sweep of up to 20 arbitrary frequencies (a full 16-lane block and a
+    // partial one): a valid sweep equals its points one by one.
+    let nf = x.byte() as usize % 21;
+    let mut freqs = [0.0f64; 20];
+    for v in freqs.iter_mut().take(nf) {
+        *v = x.f64();
+    }
+    let mut out = [Impedance::Open; 20];
+    if c.input_impedance_sweep(&freqs[..nf], &ld, &mut out[..nf])
+        .is_ok()
+    {
+        for (f, z) in freqs.iter().zip(out.iter()).take(nf) {
+            if let Impedance::Finite(v) = z {
+                no_nan(v.re, "sweep zin.re");
+                no_nan(v.im, "sweep zin.im");
+            }
+            assert_eq!(
+                c.input_impedance(*f, &ld),
+                Ok(*z),
+                "sweep vs point at {f:e}"
+            );
         }
     }
     let zr = x.f64();
