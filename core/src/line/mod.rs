@@ -306,9 +306,10 @@ impl<T: Real> PropagationLanes<T> {
         }
     }
 
-    /// Stores lane `i` (ignored past [`LANES`]) from a complex γ and an [`Impedance`].
+    /// Stores lane `i` from a complex γ and an [`Impedance`]; `i` ≥ [`LANES`]
+    /// is [`Error::Capacity`] (nothing is written).
     #[inline]
-    pub fn set(&mut self, i: usize, gamma: Cx<T>, zc: Impedance<T>) {
+    pub fn set(&mut self, i: usize, gamma: Cx<T>, zc: Impedance<T>) -> Result<()> {
         let (Some(gr), Some(gi), Some(zr), Some(zi), Some(ok)) = (
             self.gamma_re.get_mut(i),
             self.gamma_im.get_mut(i),
@@ -316,7 +317,10 @@ impl<T: Real> PropagationLanes<T> {
             self.zc_im.get_mut(i),
             self.zc_ok.get_mut(i),
         ) else {
-            return;
+            return Err(Error::Capacity {
+                what: "propagation_lanes",
+                capacity: LANES,
+            });
         };
         *gr = gamma.re;
         *gi = gamma.im;
@@ -330,6 +334,7 @@ impl<T: Real> PropagationLanes<T> {
         *zr = re;
         *zi = im;
         *ok = good;
+        Ok(())
     }
 }
 
@@ -378,8 +383,9 @@ pub trait LineModel<T: Real> {
     /// γ and Zc at each of `freqs_hz` (at most [`LANES`], else
     /// [`Error::LengthMismatch`] `"freqs_hz"`; each finite and ≥ 0, else the
     /// error of [`LineModel::at`]) into the first `freqs_hz.len()` lanes of
-    /// `out`: the same values as [`LineModel::propagation_into`], laid out for
-    /// the cascade's vectorised sweep. The default calls `at` per frequency;
+    /// `out` (the lanes after those hold unspecified values): the same values
+    /// as [`LineModel::propagation_into`], laid out for the cascade's
+    /// vectorised sweep. The default calls `at` per frequency;
     /// [`rlgc::Rlgc`] (and the models built on it) evaluate the block in loops
     /// that the compiler vectorises.
     fn propagation_lanes(&self, freqs_hz: &[T], out: &mut PropagationLanes<T>) -> Result<()> {
@@ -388,7 +394,7 @@ pub trait LineModel<T: Real> {
         }
         for (i, f) in freqs_hz.iter().enumerate() {
             let p = self.at(*f)?;
-            out.set(i, p.gamma_per_m, p.zc_ohm);
+            out.set(i, p.gamma_per_m, p.zc_ohm)?;
         }
         Ok(())
     }
@@ -515,6 +521,12 @@ mod tests {
         assert!(w.contains(Warnings::HIGH_LOSS));
         assert!(!w.contains(Warnings::DIFFUSIVE));
         assert_eq!(w.describe().count(), 2);
+    }
+
+    #[test]
+    fn propagation_lanes_size_is_as_documented() {
+        assert_eq!(core::mem::size_of::<PropagationLanes<f64>>(), 528);
+        assert_eq!(core::mem::size_of::<PropagationLanes<f32>>(), 272);
     }
 
     #[test]

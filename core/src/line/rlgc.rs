@@ -464,7 +464,7 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
                 let z = Cx::new(zr[i], zi[i]);
                 let y = Cx::new(yr[i], yi[i]);
                 let p = LinePoint::from_zy(f[i], z, y, self.zc_dc)?;
-                out.set(i, p.gamma_per_m, p.zc_ohm);
+                out.set(i, p.gamma_per_m, p.zc_ohm)?;
             }
         }
         Ok(())
@@ -751,6 +751,13 @@ mod tests {
         assert_eq!(
             ll.propagation_lanes(&[T::one(); LANES + 1], &mut out),
             Err(Error::LengthMismatch("freqs_hz"))
+        );
+        assert_eq!(
+            out.set(LANES, Cx::new(T::one(), T::one()), Impedance::Open),
+            Err(Error::Capacity {
+                what: "propagation_lanes",
+                capacity: LANES
+            })
         );
     }
 
