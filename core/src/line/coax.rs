@@ -67,10 +67,8 @@ use crate::line::conductor::{Conductor, Metal};
 use crate::line::dielectric::Dielectric;
 use crate::line::rlgc::Rlgc;
 use crate::line::{LineModel, LinePoint, Warnings};
-use crate::math::complex::Cx;
 use crate::math::roots::find_root;
 use crate::scalar::Real;
-use crate::value::Impedance;
 
 /// A coaxial line (see the module docs).
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -254,15 +252,6 @@ impl<T: Real> LineModel<T> for Coax<T> {
 
     fn cutoff_hz(&self) -> Option<T> {
         Some(self.te11_hz)
-    }
-    #[inline]
-    fn propagation_into(
-        &self,
-        freqs_hz: &[T],
-        gamma_per_m: &mut [Cx<T>],
-        zc_ohm: &mut [Impedance<T>],
-    ) -> Result<()> {
-        self.rlgc.propagation_into(freqs_hz, gamma_per_m, zc_ohm)
     }
     #[inline]
     fn propagation_lanes(

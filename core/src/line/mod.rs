@@ -357,8 +357,8 @@ pub trait LineModel<T: Real> {
     /// `freqs_hz` (each finite and ≥ 0, else the error of [`LineModel::at`]),
     /// written to the first `freqs_hz.len()` entries of `gamma_per_m` and
     /// `zc_ohm` (shorter buffers: [`Error::LengthMismatch`]). The same
-    /// values as [`LineModel::at`] without the warnings: frequency sweeps make
-    /// one call per block of frequencies. The default calls `at` per frequency.
+    /// values as [`LineModel::at`] without the warnings. The default calls `at`
+    /// per frequency (the cascade's sweeps use [`LineModel::propagation_lanes`]).
     fn propagation_into(
         &self,
         freqs_hz: &[T],

@@ -362,13 +362,11 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         Ok(point)
     }
 
-    /// As [`LineModel::propagation_into`], in loops over the block's lanes:
-    /// Z and Y (conductors and a wideband dielectric lane by lane, the rest
-    /// vectorised), then the principal root of `gamma_zc_fast` with its two
-    /// square roots in loops of their own (`libm`'s square root is an
-    /// instruction the vectoriser cannot see through, and would otherwise keep
-    /// the whole loop scalar). Lanes outside the root's safe bounds are redone
-    /// by [`LinePoint::from_zy`]. Bit for bit the values of `propagation_into`.
+    /// As [`LineModel::at`] without warnings, in loops over the block's lanes
+    /// that the compiler vectorises: Z and Y (conductors and a wideband
+    /// dielectric lane by lane), then the principal root of `gamma_zc_fast`.
+    /// Lanes outside the root's safe bounds are redone by
+    /// [`LinePoint::from_zy`]. Bit for bit the values of `at`.
     fn propagation_lanes(&self, freqs_hz: &[T], out: &mut PropagationLanes<T>) -> Result<()> {
         let n = freqs_hz.len();
         if n > LANES {
@@ -415,39 +413,26 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
                 }
             }
         }
-        // p = ZY, |p|² and the bounds test (as `gamma_zc_fast`).
-        let mut pr = [T::zero(); LANES];
-        let mut pi = [T::zero(); LANES];
-        let mut m = [T::zero(); LANES];
+        // γ and Zc by the principal root, as `gamma_zc_fast`, with its bounds
+        // test kept per lane.
         let mut fast = [false; LANES];
         for i in 0..LANES {
-            pr[i] = zr[i] * yr[i] - zi[i] * yi[i];
-            pi[i] = zr[i] * yi[i] + zi[i] * yr[i];
-            let (a, b) = (pr[i].abs(), pi[i].abs());
+            let pr = zr[i] * yr[i] - zi[i] * yi[i];
+            let pi = zr[i] * yi[i] + zi[i] * yr[i];
+            let (a, b) = (pr.abs(), pi.abs());
             let big = if a > b { a } else { b };
             fast[i] = big > self.safe_lo && big < self.safe_hi;
-            m[i] = pr[i] * pr[i] + pi[i] * pi[i];
-        }
-        for v in m.iter_mut() {
-            *v = v.sqrt();
-        }
-        let mut t = [T::zero(); LANES];
-        for i in 0..LANES {
-            t[i] = T::half() * (pr[i].abs() + m[i]);
-        }
-        for v in t.iter_mut() {
-            *v = v.sqrt();
-        }
-        for i in 0..LANES {
-            let s = pr[i].abs() + m[i];
-            let inv = T::one() / (s * m[i]);
-            let small = pi[i].abs() * t[i] * (m[i] * inv);
+            let m = (pr * pr + pi * pi).sqrt();
+            let s = pr.abs() + m;
+            let t = (T::half() * s).sqrt();
+            let inv = T::one() / (s * m);
+            let small = pi.abs() * t * (m * inv);
             let inv_m = s * inv;
-            let neg_im = pi[i].is_sign_negative();
-            let (gr, gi) = if pr[i] >= T::zero() {
-                (t[i], if neg_im { -small } else { small })
+            let neg_im = pi.is_sign_negative();
+            let (gr, gi) = if pr >= T::zero() {
+                (t, if neg_im { -small } else { small })
             } else {
-                (small, if neg_im { -t[i] } else { t[i] })
+                (small, if neg_im { -t } else { t })
             };
             // Zc = Z·conj(γ)/|ZY|.
             let cr = (zr[i] * gr + zi[i] * gi) * inv_m;
@@ -466,44 +451,6 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
                 let p = LinePoint::from_zy(f[i], z, y, self.zc_dc)?;
                 out.set(i, p.gamma_per_m, p.zc_ohm)?;
             }
-        }
-        Ok(())
-    }
-
-    /// As [`LineModel::at`] without warnings, one call per block.
-    fn propagation_into(
-        &self,
-        freqs_hz: &[T],
-        gamma_per_m: &mut [Cx<T>],
-        zc_ohm: &mut [Impedance<T>],
-    ) -> Result<()> {
-        if gamma_per_m.len() < freqs_hz.len() || zc_ohm.len() < freqs_hz.len() {
-            return Err(Error::LengthMismatch("gamma_per_m"));
-        }
-        for ((f, g), zc_o) in freqs_hz
-            .iter()
-            .zip(gamma_per_m.iter_mut())
-            .zip(zc_ohm.iter_mut())
-        {
-            let f = *f;
-            if !(f >= T::zero() && f <= T::max_value()) {
-                error::non_negative(f, "freq_hz")?;
-            }
-            let z = self.z_of(f);
-            let y = self.y_of(f);
-            (*g, *zc_o) = match self.gamma_zc_fast(z, y) {
-                // As `Impedance::from_complex`, by float comparisons.
-                Some((gamma, zc))
-                    if zc.re.abs() <= T::max_value() && zc.im.abs() <= T::max_value() =>
-                {
-                    (gamma, Impedance::Finite(zc))
-                }
-                Some((gamma, _)) => (gamma, Impedance::Open),
-                None => {
-                    let p = LinePoint::from_zy(f, z, y, self.zc_dc)?;
-                    (p.gamma_per_m, p.zc_ohm)
-                }
-            };
         }
         Ok(())
     }

@@ -171,7 +171,7 @@ pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
 /// (< 6·10⁻⁹), by Horner's rule. Error: a few ulp. x above 708 (`f64`) or
 /// 87 (`f32`), +∞ included, gives exactly 0 (the true value is below the
 /// smallest normal number or nearly so); NaN gives NaN. Negative x is outside
-/// the valid range (the result is then e^(−x) only for x ≥ −0.34).
+/// the documented range.
 #[inline(always)]
 pub fn exp_neg_poly<T: Real>(x: T) -> T {
     let single = T::EPS > T::lit(1e-10);
@@ -180,6 +180,8 @@ pub fn exp_neg_poly<T: Real>(x: T) -> T {
     let xc = if saturated { x_max } else { x }; // NaN stays NaN
     let c = T::lit(1.5) / T::EPS;
     let k = (xc * T::LOG2_E() + c) - c;
+    // ln 2 split as in fdlibm's e_exp.c (f64) and musl's expf (f32) (values
+    // from memory; `exp_neg_poly_matches_libm` checks the result against libm).
     let (hi, lo) = if single {
         (
             T::lit(0.693_145_751_953_125),

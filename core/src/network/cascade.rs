@@ -255,7 +255,7 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
     /// Per line section: γ and Zc from [`LineModel::propagation_lanes`], then
     /// one loop over all lanes without branches or calls (e^{−2γl} by
     /// [`exp_neg_poly`] and [`sin_cos_turns`], the reflection step, the
-    /// range test of `renormalise`), which the compiler vectorises; then a
+    /// rescale test), which the compiler vectorises; then a
     /// scalar pass over the few lanes that need more: a Zc that is not finite
     /// and non-zero (the section's ABCD map), or a state to rescale.
     fn walk_block(&self, freqs: &[T], load: &Load<T>, out: &mut [Impedance<T>]) -> Result<()> {
@@ -302,7 +302,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                         let (sn, cs) = sin_cos_turns(-(prop.gamma_im[i] * l * T::FRAC_1_PI()));
                         let (er, ei) = (m * cs, m * sn);
                         let (cr, ci) = (prop.zc_re[i], prop.zc_im[i]);
-                        // As `line_step`: Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e.
+                        // Γ_L = (n − Zc·d)/(n + Zc·d), Γin = Γ_L·e, Zin = Zc(1 + Γin)/(1 − Γin),
+                        // kept as a ratio; a 1 − Γin within 8ε of its terms is exactly 0 (an open).
                         let zdr = cr * dr[i] - ci * di[i];
                         let zdi = cr * di[i] + ci * dr[i];
                         let (gnr, gni) = (nr[i] - zdr, ni[i] - zdi);
@@ -325,6 +326,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                         xi[i] = nni;
                         yr[i] = ddr;
                         yi[i] = ddi;
+                        // Left as it is while the sum of the parts' moduli is within
+                        // [2⁻³², 2³²] (a NaN fails both tests); else rescaled below.
                         let msum = (nnr.abs() + nni.abs()) + (ddr.abs() + ddi.abs());
                         kept[i] = msum >= lo && msum <= hi;
                     }
@@ -412,7 +415,7 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
 
 /// max(|re|, |im|) by plain comparisons (no NaN handling: `f64::max` spends
 /// several instructions on dropping a NaN operand; here a NaN simply fails
-/// the comparison it feeds and the result is checked by [`renormalise`]).
+/// the comparison it feeds and the result is checked by the walk's rescale test).
 #[inline(always)]
 fn norm_fast<T: Real>(z: Cx<T>) -> T {
     max_fast(z.re.abs(), z.im.abs())
@@ -511,7 +514,8 @@ mod tests {
         c.input_impedance_sweep(&freqs, &load, &mut out).unwrap();
         for (f, z) in freqs.iter().zip(out.iter()) {
             assert_eq!(*z, c.input_impedance(*f, &load).unwrap());
-            // Textbook: Zin = Zc (ZL + Zc tanh γl)/(Zc + ZL tanh γl), section by section.
+            // Pozar 2012 §2.7 (terminated lossy line): Zin = Zc (ZL + Zc tanh γl)/(Zc + ZL tanh γl),
+            // section by section.
             let mut zl = Cx::new(T::lit(100.0), T::zero());
             for (m, l) in [(&lossy, T::lit(2.0)), (&leaky, T::lit(3.0))] {
                 let p = m.at(*f).unwrap();
