@@ -148,7 +148,8 @@ impl<T: Real> RlgcBuilder<T> {
         );
         let has_tube = self.conductors.iter().flatten().any(|c| c.is_tube());
         let has_conductor = self.conductors.iter().any(|c| c.is_some());
-        // |ZY| within [4√min, √max/4]: its squared modulus neither overflows nor underflows.
+        // |Re ZY| + |Im ZY| within [4√min, √max/4] (so max(|Re|, |Im|) within
+        // [2√min, √max/4]): the squared modulus neither overflows nor underflows.
         let safe_hi = T::max_value().sqrt() * T::lit(0.25);
         let safe_lo = T::min_positive_value().sqrt() * T::lit(4.0);
         Ok(Rlgc {
@@ -283,16 +284,28 @@ impl<T: Real> Rlgc<T> {
     }
 }
 
+/// |a| + |b|, between max(|a|, |b|) and twice it, for the root's bounds test;
+/// a NaN in either part gives NaN (which fails the test).
+#[inline(always)]
+fn abs_sum<T: Real>(a: T, b: T) -> T {
+    a.abs() + b.abs()
+}
+
 impl<T: Real> Rlgc<T> {
+    /// Whether `sum` = |Re ZY| + |Im ZY| is inside the bounds where the
+    /// unscaled root's squares are safe (a NaN is not).
+    #[inline(always)]
+    fn root_is_fast(&self, sum: T) -> bool {
+        sum > self.safe_lo && sum < self.safe_hi
+    }
+
     /// γ and Zc from Z and Y by the unscaled principal root, or `None` when
     /// max(|Re ZY|, |Im ZY|) is outside the bounds where its squares are safe
     /// (then [`LinePoint::from_zy`] is used).
     #[inline(always)]
     fn gamma_zc_fast(&self, z: Cx<T>, y: Cx<T>) -> Option<(Cx<T>, Cx<T>)> {
         let p = z * y;
-        let (a, b) = (p.re.abs(), p.im.abs());
-        let big = if a > b { a } else { b }; // a NaN fails the bounds below
-        if !(big > self.safe_lo && big < self.safe_hi) {
+        if !self.root_is_fast(abs_sum(p.re, p.im)) {
             return None;
         }
         // γ = √(ZY) by the principal root, Zc = Z/γ = Z·conj(γ)/|ZY|
@@ -374,10 +387,17 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         }
         let mut f = [T::zero(); LANES];
         for (d, s) in f.iter_mut().zip(freqs_hz) {
-            if !(*s >= T::zero() && *s <= T::max_value()) {
-                error::non_negative(*s, "freq_hz")?;
-            }
             *d = *s;
+        }
+        // One test for the block (unused lanes hold 0); the named error on the cold path.
+        let mut all_valid = true;
+        for v in f.iter() {
+            all_valid &= *v >= T::zero() && *v <= T::max_value();
+        }
+        if !all_valid {
+            for v in f.iter() {
+                error::non_negative(*v, "freq_hz")?;
+            }
         }
         let mut zr = [self.r0; LANES];
         let mut zi = [T::zero(); LANES];
@@ -415,13 +435,12 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
         }
         // γ and Zc by the principal root, as `gamma_zc_fast`, with its bounds
         // test kept per lane.
-        let mut fast = [false; LANES];
+        let mut all_fast = true;
         for i in 0..LANES {
             let pr = zr[i] * yr[i] - zi[i] * yi[i];
             let pi = zr[i] * yi[i] + zi[i] * yr[i];
-            let (a, b) = (pr.abs(), pi.abs());
-            let big = if a > b { a } else { b };
-            fast[i] = big > self.safe_lo && big < self.safe_hi;
+            let sum = abs_sum(pr, pi);
+            all_fast &= self.root_is_fast(sum);
             let m = (pr * pr + pi * pi).sqrt();
             let s = pr.abs() + m;
             let t = (T::half() * s).sqrt();
@@ -444,8 +463,12 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
             let mag = cr.abs() + ci.abs();
             out.zc_ok[i] = mag > T::zero() && mag <= T::max_value();
         }
+        if all_fast {
+            return Ok(());
+        }
         for i in 0..LANES {
-            if i < n && !fast[i] {
+            let sum = abs_sum(zr[i] * yr[i] - zi[i] * yi[i], zr[i] * yi[i] + zi[i] * yr[i]);
+            if i < n && !self.root_is_fast(sum) {
                 let z = Cx::new(zr[i], zi[i]);
                 let y = Cx::new(yr[i], yi[i]);
                 let p = LinePoint::from_zy(f[i], z, y, self.zc_dc)?;

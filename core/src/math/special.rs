@@ -97,67 +97,62 @@ fn round_near<T: Real>(x: T) -> T {
 /// `libm`'s `sinf`/`cosf` (musl's design) evaluate their kernels in double
 /// precision, which on a single-precision FPU (Cortex-M4F) means soft-float
 /// calls. This routine stays in `T`: the phase is reduced exactly (t − round(t),
-/// then quadrants by the exact 4t − round(4t)), and on |θ| ≤ π/4 the Taylor series
-/// of sin and cos to θ¹⁷ and θ¹⁸ in `f64` (truncation < 10⁻¹⁹), to θ⁹ and θ¹⁰
-/// in `f32` (truncation < 2·10⁻⁹), are summed by Horner's rule. Error: about 1 ulp of 1 in either precision. Non-finite t gives NaN.
+/// then quadrants by the exact 4t − round(4t)), and on |θ| ≤ π/4 sin and cos
+/// are minimax polynomials summed by Horner's rule: in `f64` the coefficients
+/// of fdlibm's `__kernel_sin`/`__kernel_cos` (Sun Microsystems, 1993, also in
+/// the `libm` crate's `k_sin.rs`/`k_cos.rs`; sin to θ¹³, cos to θ¹⁴,
+/// approximation error < 2⁻⁵⁸), in `f32` those of Cephes' `sinf`/`cosf`
+/// (S. L. Moshier, 1992; sin to θ⁷, cos to θ⁸). `sin_cos_turns_matches_libm`
+/// checks both against libm. Error: about 1 ulp of 1 in either precision.
+/// Non-finite t gives NaN.
 #[inline(always)]
 pub fn sin_cos_turns<T: Real>(turns: T) -> (T, T) {
     let r = turns - round_near(turns); // [−½, ½], exact
     let u = r * T::lit(4.0); // exact
-    let k = round_near(u);
+    let c0 = T::lit(1.5) / T::EPS;
+    let k = (u + c0) - c0; // |u| ≤ 2: `round_near` without its guard
     let f = u - k; // [−½, ½], exact
     let th = f * T::FRAC_PI_2();
     let z = th * th;
-    // sin θ = θ − θ·z·P(z), P = 1/3! − z/5! + … − z⁷/17!;
-    // cos θ = 1 − z·Q(z),   Q = 1/2! − z/4! + … + z⁸/18!  (Horner, highest first).
+    // sin θ = θ + θ·z·S(z), cos θ = 1 − (z/2 − z²·C(z)) (Horner, highest first).
     // Each coefficient is written as `T::lit(literal)` so it folds at compile time.
     let h = |acc: T, c: f64| acc * z + T::lit(c);
-    let (p, q) = if T::EPS > T::lit(1e-10) {
-        // Single precision: terms to θ⁹ and θ¹⁰ (truncation < 2·10⁻⁹).
-        let p = h(
-            h(h(T::lit(-1.0 / 362_880.0), 1.0 / 5_040.0), -1.0 / 120.0),
-            1.0 / 6.0,
+    let (sp, cp) = if T::EPS > T::lit(1e-10) {
+        let sp = h(
+            h(T::lit(-1.951_529_589_1e-4), 8.332_160_873_6e-3),
+            -1.666_665_461_1e-1,
         );
-        let q = h(
-            h(
-                h(h(T::lit(1.0 / 3_628_800.0), -1.0 / 40_320.0), 1.0 / 720.0),
-                -1.0 / 24.0,
-            ),
-            0.5,
+        let cp = h(
+            h(T::lit(2.443_315_711_809_948e-5), -1.388_731_625_493_765e-3),
+            4.166_664_568_298_827e-2,
         );
-        (p, q)
+        (sp, cp)
     } else {
-        let mut p = T::lit(-1.0 / 355_687_428_096_000.0);
-        p = h(p, 1.0 / 1_307_674_368_000.0);
-        p = h(p, -1.0 / 6_227_020_800.0);
-        p = h(p, 1.0 / 39_916_800.0);
-        p = h(p, -1.0 / 362_880.0);
-        p = h(p, 1.0 / 5_040.0);
-        p = h(p, -1.0 / 120.0);
-        p = h(p, 1.0 / 6.0);
-        let mut q = T::lit(1.0 / 6_402_373_705_728_000.0);
-        q = h(q, -1.0 / 20_922_789_888_000.0);
-        q = h(q, 1.0 / 87_178_291_200.0);
-        q = h(q, -1.0 / 479_001_600.0);
-        q = h(q, 1.0 / 3_628_800.0);
-        q = h(q, -1.0 / 40_320.0);
-        q = h(q, 1.0 / 720.0);
-        q = h(q, -1.0 / 24.0);
-        q = h(q, 0.5);
-        (p, q)
+        let mut sp = T::lit(1.589_690_995_211_55e-10);
+        sp = h(sp, -2.505_076_025_340_686_3e-8);
+        sp = h(sp, 2.755_731_370_707_006_8e-6);
+        sp = h(sp, -1.984_126_982_985_795e-4);
+        sp = h(sp, 8.333_333_333_322_49e-3);
+        sp = h(sp, -1.666_666_666_666_663_2e-1);
+        let mut cp = T::lit(-1.135_964_755_778_819_5e-11);
+        cp = h(cp, 2.087_572_321_298_175e-9);
+        cp = h(cp, -2.755_731_435_139_066_3e-7);
+        cp = h(cp, 2.480_158_728_947_673e-5);
+        cp = h(cp, -1.388_888_888_887_411e-3);
+        cp = h(cp, 4.166_666_666_666_66e-2);
+        (sp, cp)
     };
-    let s = th - th * z * p;
-    let c = T::one() - z * q;
+    let s = th + th * z * sp;
+    let c = T::one() - (T::half() * z - z * z * cp);
     // Quadrant k ∈ {−2, −1, 0, 1, 2} (k mod 4 = 0: (s, c), 1: (c, −s),
-    // 2: (−s, −c), 3: (−c, s)), by selects rather than an integer match: no
-    // float-to-integer conversion and no branch on the phase.
+    // 2: (−s, −c), 3: (−c, s)) by exact arithmetic on k rather than selects or
+    // an integer match (no float-to-integer conversion, no branch on the
+    // phase): o = 1 − |1 − |k|| is 1 for odd k and 0 for even k, 1 − |k| is
+    // ±1 for even k and 0 for odd k, and every product below is by −1, 0 or 1.
     let ka = k.abs();
-    let (a, b) = if ka == T::one() { (c, -s) } else { (s, c) };
-    if k == -T::one() || ka == T::two() {
-        (-a, -b)
-    } else {
-        (a, b)
-    }
+    let ev = T::one() - ka;
+    let ko = k * (T::one() - ev.abs());
+    (ko * c + ev * s, ev * c - ko * s)
 }
 
 /// e^(−x) for x ≥ 0 in the scalar's own precision, without branches or calls

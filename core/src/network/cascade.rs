@@ -266,25 +266,13 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             *d = *s;
         }
         let (mut nr, mut ni, mut dr, mut di) = (z0, z0, z0, z0);
-        // Constant loop bounds (not `0..n`) keep the indexing provably in
-        // range at every opt-level (the firmware's no-panic proof).
-        for i in 0..SWEEP_BLOCK {
-            if i >= n {
-                break;
-            }
-            match load.impedance_unchecked(f[i]) {
-                Impedance::Open => nr[i] = T::one(),
-                Impedance::Finite(z) => {
-                    nr[i] = z.re;
-                    ni[i] = z.im;
-                    dr[i] = T::one();
-                }
-            }
-        }
+        load_lanes(load, &f, n, &mut nr, &mut ni, &mut dr);
         let mut prop = PropagationLanes::new();
+        // The state of lanes whose Zc is not finite, mapped by the ABCD matrix
+        // before the vectorised loop overwrites it (rare: DC without leakage).
+        let mut held =
+            [(Cx::new(T::zero(), T::zero()), Cx::new(T::zero(), T::zero())); SWEEP_BLOCK];
         let eps8 = T::lit(8.0) * T::EPS;
-        let lo = T::lit(2.328_306_436_538_696_3e-10); // 2⁻³²
-        let hi = T::lit(4_294_967_296.0); // 2³²
         for e in self.elements.iter().rev() {
             match e {
                 Element::Line { model, length_m } => {
@@ -294,8 +282,26 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                     }
                     let fs = f.get(..n).unwrap_or(&[]);
                     model.propagation_lanes(fs, &mut prop)?;
-                    let (mut xr, mut xi, mut yr, mut yi) = (z0, z0, z0, z0);
-                    let mut kept = [false; SWEEP_BLOCK];
+                    let mut all_zc = true;
+                    for (i, ok) in prop.zc_ok.iter().enumerate() {
+                        all_zc &= *ok | (i >= n);
+                    }
+                    if !all_zc {
+                        // Constant loop bounds (not `0..n`) keep the indexing provably
+                        // in range at every opt-level (the firmware's no-panic proof).
+                        for i in 0..SWEEP_BLOCK {
+                            if i >= n {
+                                break;
+                            }
+                            if !prop.zc_ok[i] {
+                                // No finite non-zero Zc (e.g. DC without leakage): the ABCD map.
+                                let m = Abcd::line(&model.at(f[i])?, l)?;
+                                let (a, b) = (Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]));
+                                held[i] = normalise(m.a * a + m.b * b, snap_sum(m.c * a, m.d * b))?;
+                            }
+                        }
+                    }
+                    let mut all_kept = true;
                     for i in 0..SWEEP_BLOCK {
                         // e^{−2γl}: 2αl nepers, 2βl/(2π) = βl/π turns.
                         let m = exp_neg_poly(T::two() * prop.gamma_re[i] * l);
@@ -317,36 +323,30 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                                 max_fast(ger.abs(), gei.abs()),
                             );
                         let open = max_fast(ddr.abs(), ddi.abs()) <= tiny;
-                        let ddr = if open { T::zero() } else { ddr };
-                        let ddi = if open { T::zero() } else { ddi };
                         let (sr, si) = (gdr + ger, gdi + gei);
-                        let nnr = cr * sr - ci * si;
-                        let nni = cr * si + ci * sr;
-                        xr[i] = nnr;
-                        xi[i] = nni;
-                        yr[i] = ddr;
-                        yi[i] = ddi;
-                        // Left as it is while the sum of the parts' moduli is within
-                        // [2⁻³², 2³²] (a NaN fails both tests); else rescaled below.
-                        let msum = (nnr.abs() + nni.abs()) + (ddr.abs() + ddi.abs());
-                        kept[i] = msum >= lo && msum <= hi;
+                        nr[i] = cr * sr - ci * si;
+                        ni[i] = cr * si + ci * sr;
+                        dr[i] = if open { T::zero() } else { ddr };
+                        di[i] = if open { T::zero() } else { ddi };
+                        all_kept &= kept(nr[i], ni[i], dr[i], di[i]);
                     }
-                    for i in 0..SWEEP_BLOCK {
-                        if i >= n {
-                            break;
-                        }
-                        if !prop.zc_ok[i] {
-                            // No finite non-zero Zc (e.g. DC without leakage): the ABCD map.
-                            let m = Abcd::line(&model.at(f[i])?, l)?;
-                            let (a, b) = (Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]));
-                            let (p, q) = normalise(m.a * a + m.b * b, snap_sum(m.c * a, m.d * b))?;
-                            (xr[i], xi[i], yr[i], yi[i]) = (p.re, p.im, q.re, q.im);
-                        } else if !kept[i] {
-                            let (p, q) = normalise(Cx::new(xr[i], xi[i]), Cx::new(yr[i], yi[i]))?;
-                            (xr[i], xi[i], yr[i], yi[i]) = (p.re, p.im, q.re, q.im);
+                    if !(all_kept && all_zc) {
+                        // The few lanes that need more (and, in a partial block, the
+                        // unused lanes' flags): the ABCD result, or a rescale.
+                        for i in 0..SWEEP_BLOCK {
+                            if i >= n {
+                                break;
+                            }
+                            if !prop.zc_ok[i] {
+                                let (p, q) = held[i];
+                                (nr[i], ni[i], dr[i], di[i]) = (p.re, p.im, q.re, q.im);
+                            } else if !kept(nr[i], ni[i], dr[i], di[i]) {
+                                let (p, q) =
+                                    normalise(Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]))?;
+                                (nr[i], ni[i], dr[i], di[i]) = (p.re, p.im, q.re, q.im);
+                            }
                         }
                     }
-                    (nr, ni, dr, di) = (xr, xi, yr, yi);
                 }
                 _ => {
                     for i in 0..SWEEP_BLOCK {
@@ -360,17 +360,101 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
                 }
             }
         }
-        for (((o, (a, b)), c), d) in out
-            .iter_mut()
-            .zip(nr.iter().zip(ni.iter()))
-            .zip(dr.iter())
-            .zip(di.iter())
-            .take(n)
-        {
-            *o = ratio_fast(Cx::new(*a, *b), Cx::new(*c, *d))?;
+        // n/d: one reciprocal per lane in a vectorised loop; lanes outside its
+        // bounds by Smith's division.
+        let (mut qr, mut qi) = (z0, z0);
+        let mut all_fast = true;
+        for i in 0..SWEEP_BLOCK {
+            let k = T::one() / (dr[i] * dr[i] + di[i] * di[i]);
+            // + 0 turns a −0 into +0 (as `complex::unsign_zero`).
+            qr[i] = (nr[i] * dr[i] + ni[i] * di[i]) * k + T::zero();
+            qi[i] = (ni[i] * dr[i] - nr[i] * di[i]) * k + T::zero();
+            all_fast &= ratio_fast_ok(nr[i], ni[i], dr[i], di[i]);
+        }
+        for (i, o) in out.iter_mut().enumerate() {
+            if i >= n {
+                break;
+            }
+            *o = if all_fast {
+                Impedance::Finite(Cx::new(qr[i], qi[i]))
+            } else {
+                // The same formula lane by lane (so the same bits), or Smith's.
+                ratio_fast(Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]))?
+            };
         }
         Ok(())
     }
+}
+
+/// The load's (n, d) = (Z_L, 1), or (1, 0) for an open, in lanes `0..n` (the
+/// rest keep their zeros). Series R-L-C loads and resistors by a loop without
+/// branches (vectorised); the others lane by lane. The values are those of
+/// `Load::impedance_unchecked`, bit for bit.
+#[inline(always)]
+fn load_lanes<T: Real>(
+    load: &Load<T>,
+    f: &[T; SWEEP_BLOCK],
+    n: usize,
+    nr: &mut [T; SWEEP_BLOCK],
+    ni: &mut [T; SWEEP_BLOCK],
+    dr: &mut [T; SWEEP_BLOCK],
+) {
+    let zero = T::zero();
+    if let Load::Series(rlc) = load {
+        let r = rlc.r_ohm.unwrap_or(zero);
+        let (has_l, l) = (rlc.l_h.is_some(), rlc.l_h.unwrap_or(zero));
+        let (has_c, c) = (rlc.c_f.is_some(), rlc.c_f.unwrap_or(T::one()));
+        for i in 0..SWEEP_BLOCK {
+            let omega = T::two_pi() * f[i];
+            let im_l = zero + omega * l;
+            let im = if has_l { im_l } else { zero };
+            let wc = omega * c;
+            let im_c = im - T::one() / wc;
+            let im = if has_c { im_c } else { im };
+            // Bitwise `&`/`|` (no short-circuit branches: the loop vectorises).
+            let finite = (r.abs() <= T::max_value()) & (im.abs() <= T::max_value());
+            let open = (has_c & (wc == zero)) | !finite;
+            nr[i] = if open { T::one() } else { r };
+            ni[i] = if open { zero } else { im };
+            dr[i] = if open { zero } else { T::one() };
+        }
+        return;
+    }
+    for i in 0..SWEEP_BLOCK {
+        if i >= n {
+            break;
+        }
+        match load.impedance_unchecked(f[i]) {
+            Impedance::Open => nr[i] = T::one(),
+            Impedance::Finite(z) => {
+                nr[i] = z.re;
+                ni[i] = z.im;
+                dr[i] = T::one();
+            }
+        }
+    }
+}
+
+/// The state is left as it is while the sum of its parts' moduli is within
+/// [2⁻³², 2³²] (a NaN fails both tests); else it is rescaled.
+#[inline(always)]
+fn kept<T: Real>(nr: T, ni: T, dr: T, di: T) -> bool {
+    let lo = T::lit(2.328_306_436_538_696_3e-10); // 2⁻³²
+    let hi = T::lit(4_294_967_296.0); // 2³²
+    let msum = (nr.abs() + ni.abs()) + (dr.abs() + di.abs());
+    msum >= lo && msum <= hi
+}
+
+/// Whether n/d may be taken as n·conj(d)·(1/|d|²) rather than by Smith's two
+/// divisions: max(|Re d|, |Im d|) within [2⁻⁶⁰, 2⁶⁰] and |Re n|, |Im n| ≤ 2⁶⁰
+/// (|d|² and the products can then neither overflow nor underflow to a loss
+/// of accuracy; d = 0 and 0/0 go to `ratio_to_impedance`).
+#[inline(always)]
+fn ratio_fast_ok<T: Real>(nr: T, ni: T, dr: T, di: T) -> bool {
+    let m = max_fast(dr.abs(), di.abs());
+    let lo = T::lit(8.673_617_379_884_035e-19); // 2⁻⁶⁰
+    let hi = T::lit(1.152_921_504_606_847e18); // 2⁶⁰
+    m >= lo && m <= hi && nr.abs() <= hi && ni.abs() <= hi
 }
 
 /// Frequencies processed together by [`Cascade::input_impedance_sweep`].
@@ -413,14 +497,9 @@ fn step<T: Real>(e: &Element<'_, T>, f: T, st: &mut (Cx<T>, Cx<T>)) -> Result<()
     Ok(())
 }
 
-/// max(|re|, |im|) by plain comparisons (no NaN handling: `f64::max` spends
+/// max(a, b) by a plain comparison (no NaN handling: `f64::max` spends
 /// several instructions on dropping a NaN operand; here a NaN simply fails
 /// the comparison it feeds and the result is checked by the walk's rescale test).
-#[inline(always)]
-fn norm_fast<T: Real>(z: Cx<T>) -> T {
-    max_fast(z.re.abs(), z.im.abs())
-}
-
 #[inline(always)]
 fn max_fast<T: Real>(a: T, b: T) -> T {
     if a > b {
@@ -437,10 +516,7 @@ fn max_fast<T: Real>(a: T, b: T) -> T {
 /// to a loss of accuracy).
 #[inline(always)]
 fn ratio_fast<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<Impedance<T>> {
-    let m = norm_fast(d);
-    let lo = T::lit(8.673_617_379_884_035e-19); // 2⁻⁶⁰
-    let hi = T::lit(1.152_921_504_606_847e18); // 2⁶⁰
-    if m >= lo && m <= hi && n.re.abs() <= hi && n.im.abs() <= hi {
+    if ratio_fast_ok(n.re, n.im, d.re, d.im) {
         let k = T::one() / (d.re * d.re + d.im * d.im);
         let q = Cx::new(
             (n.re * d.re + n.im * d.im) * k,
@@ -536,6 +612,63 @@ mod tests {
         // at 225 MHz still above 8 Np: Zin is the lossy section's Zc.
         let p = lossy.at(freqs[SWEEP_BLOCK - 1]).unwrap();
         assert!(p.gamma_per_m.re * T::lit(2.0) > T::lit(8.0));
+    }
+
+    /// `load_lanes` gives `Load::impedance_unchecked`'s values bit for bit
+    /// (signed zeros included) in every lane, for series R-L-C loads with any
+    /// elements present or absent (its vectorised path) and for other loads.
+    fn load_lanes_bitwise<T: Real>() {
+        let same = |a: T, b: T| a == b && a.is_sign_negative() == b.is_sign_negative();
+        let vals = [
+            None,
+            Some(T::zero()),
+            Some(T::lit(1e-12)),
+            Some(T::lit(50.0)),
+        ];
+        let mut f = [T::zero(); SWEEP_BLOCK];
+        let picks = [0.0, 1e-30, 1.0, 1e3, 1e6, 1e9, 3e11, 1e30];
+        for (i, v) in f.iter_mut().enumerate() {
+            *v = T::lit(picks[i % picks.len()]) * T::lit(1.0 + i as f64 / 7.0);
+        }
+        f[SWEEP_BLOCK - 1] = T::max_value();
+        let mut loads = [Load::Open; 64 + 4];
+        let mut k = 0;
+        for r in vals {
+            for l in vals {
+                for c in vals {
+                    loads[k] = Load::Series(Rlc::new(r, l, c));
+                    k += 1;
+                }
+            }
+        }
+        loads[64] = Load::Short;
+        loads[65] = Load::Resistor(T::lit(75.0));
+        loads[66] = Load::Parallel(Rlc::new(Some(T::lit(50.0)), None, Some(T::lit(1e-12))));
+        for load in loads.iter() {
+            let z0 = [T::zero(); SWEEP_BLOCK];
+            let (mut nr, mut ni, mut dr) = (z0, z0, z0);
+            load_lanes(load, &f, SWEEP_BLOCK, &mut nr, &mut ni, &mut dr);
+            for i in 0..SWEEP_BLOCK {
+                let (wr, wi, wd) = match load.impedance_unchecked(f[i]) {
+                    Impedance::Open => (T::one(), T::zero(), T::zero()),
+                    Impedance::Finite(z) => (z.re, z.im, T::one()),
+                };
+                assert!(
+                    same(nr[i], wr) && same(ni[i], wi) && same(dr[i], wd),
+                    "{load:?} f = {:?}: ({:?}, {:?}, {:?}) vs ({wr:?}, {wi:?}, {wd:?})",
+                    f[i],
+                    nr[i],
+                    ni[i],
+                    dr[i]
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn load_lanes_equal_the_scalar_load() {
+        load_lanes_bitwise::<f64>();
+        load_lanes_bitwise::<f32>();
     }
 
     #[test]
