@@ -26,8 +26,11 @@
 //! frequencies gives γ and Zc, part by part). The walk keeps (n, d) for the
 //! block in arrays and runs each line section as one loop over the lanes
 //! without branches or calls (e^{−2αl} by [`exp_neg_poly`], the phase by
-//! [`sin_cos_turns`] in turns), which the compiler vectorises; lanes that need
-//! the ABCD map or a rescale are marked and redone by scalar code afterwards.
+//! [`sin_cos_turns`] in turns), which the compiler vectorises, updating the
+//! state in place; one flag per block says whether any lane needs the ABCD map
+//! (mapped before the loop, from the old state) or a rescale (done after it),
+//! and only then does scalar code visit the lanes. The load and the final n/d
+//! are vectorised loops too.
 //! A single point is a block of one lane, so sweeps equal their points bit for bit.
 //! The ratio (n, d) is rescaled only when the sum of its parts' moduli leaves
 //! [2⁻³², 2³²] (a common factor does not change n/d), and the final n/d uses
@@ -255,9 +258,10 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
     /// Per line section: γ and Zc from [`LineModel::propagation_lanes`], then
     /// one loop over all lanes without branches or calls (e^{−2γl} by
     /// [`exp_neg_poly`] and [`sin_cos_turns`], the reflection step, the
-    /// rescale test), which the compiler vectorises; then a
-    /// scalar pass over the few lanes that need more: a Zc that is not finite
-    /// and non-zero (the section's ABCD map), or a state to rescale.
+    /// rescale test), which the compiler vectorises, in place; a scalar pass
+    /// over the lanes runs only when the block's flags say some lane needs more:
+    /// a Zc that is not finite and non-zero (the section's ABCD map, computed
+    /// into `held` before the loop) or a state to rescale.
     fn walk_block(&self, freqs: &[T], load: &Load<T>, out: &mut [Impedance<T>]) -> Result<()> {
         let n = freqs.len().min(SWEEP_BLOCK).min(out.len());
         let z0 = [T::zero(); SWEEP_BLOCK];
