@@ -300,7 +300,7 @@ impl<T: Real> Rlgc<T> {
     }
 
     /// γ and Zc from Z and Y by the unscaled principal root, or `None` when
-    /// max(|Re ZY|, |Im ZY|) is outside the bounds where its squares are safe
+    /// |Re ZY| + |Im ZY| is outside the bounds where its squares are safe
     /// (then [`LinePoint::from_zy`] is used).
     #[inline(always)]
     fn gamma_zc_fast(&self, z: Cx<T>, y: Cx<T>) -> Option<(Cx<T>, Cx<T>)> {
@@ -433,8 +433,8 @@ impl<T: Real> LineModel<T> for Rlgc<T> {
                 }
             }
         }
-        // γ and Zc by the principal root, as `gamma_zc_fast`, with its bounds
-        // test kept per lane.
+        // γ and Zc by the principal root, as `gamma_zc_fast`; its bounds test
+        // is one flag for the block, and lanes outside are redone below.
         let mut all_fast = true;
         for i in 0..LANES {
             let pr = zr[i] * yr[i] - zi[i] * yi[i];
