@@ -102,7 +102,7 @@ fn round_near<T: Real>(x: T) -> T {
 /// of fdlibm's `__kernel_sin`/`__kernel_cos` (Sun Microsystems, 1993, also in
 /// the `libm` crate's `k_sin.rs`/`k_cos.rs`; sin to θ¹³, cos to θ¹⁴,
 /// approximation error < 2⁻⁵⁸), in `f32` those of Cephes' `sinf`/`cosf`
-/// (S. L. Moshier, 1992; sin to θ⁷, cos to θ⁸). `sin_cos_turns_matches_libm`
+/// (S. L. Moshier, 1992; sin to θ⁷, cos to θ⁸; values from memory). `sin_cos_turns_matches_libm`
 /// checks both against libm. Error: about 1 ulp of 1 in either precision.
 /// Non-finite t gives NaN.
 #[inline(always)]

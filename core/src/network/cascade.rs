@@ -369,10 +369,7 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
         let (mut qr, mut qi) = (z0, z0);
         let mut all_fast = true;
         for i in 0..SWEEP_BLOCK {
-            let k = T::one() / (dr[i] * dr[i] + di[i] * di[i]);
-            // + 0 turns a −0 into +0 (as `complex::unsign_zero`).
-            qr[i] = (nr[i] * dr[i] + ni[i] * di[i]) * k + T::zero();
-            qi[i] = (ni[i] * dr[i] - nr[i] * di[i]) * k + T::zero();
+            (qr[i], qi[i]) = quotient_fast(nr[i], ni[i], dr[i], di[i]);
             all_fast &= ratio_fast_ok(nr[i], ni[i], dr[i], di[i]);
         }
         for (i, o) in out.iter_mut().enumerate() {
@@ -382,7 +379,7 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
             *o = if all_fast {
                 Impedance::Finite(Cx::new(qr[i], qi[i]))
             } else {
-                // The same formula lane by lane (so the same bits), or Smith's.
+                // `quotient_fast` lane by lane (so the same bits), or Smith's.
                 ratio_fast(Cx::new(nr[i], ni[i]), Cx::new(dr[i], di[i]))?
             };
         }
@@ -391,8 +388,8 @@ impl<'a, T: Real, const N: usize> Cascade<'a, T, N> {
 }
 
 /// The load's (n, d) = (Z_L, 1), or (1, 0) for an open, in lanes `0..n` (the
-/// rest keep their zeros). Series R-L-C loads and resistors by a loop without
-/// branches (vectorised); the others lane by lane. The values are those of
+/// rest keep their zeros). Series R-L-C loads by a loop without branches
+/// (vectorised); the others lane by lane. The values are those of
 /// `Load::impedance_unchecked`, bit for bit.
 #[inline(always)]
 fn load_lanes<T: Real>(
@@ -461,6 +458,17 @@ fn ratio_fast_ok<T: Real>(nr: T, ni: T, dr: T, di: T) -> bool {
     m >= lo && m <= hi && nr.abs() <= hi && ni.abs() <= hi
 }
 
+/// n/d = n·conj(d)·(1/|d|²), valid where [`ratio_fast_ok`]; `+ 0` turns a
+/// −0 into +0 (as `complex::unsign_zero`, without a compare).
+#[inline(always)]
+fn quotient_fast<T: Real>(nr: T, ni: T, dr: T, di: T) -> (T, T) {
+    let k = T::one() / (dr * dr + di * di);
+    (
+        (nr * dr + ni * di) * k + T::zero(),
+        (ni * dr - nr * di) * k + T::zero(),
+    )
+}
+
 /// Frequencies processed together by [`Cascade::input_impedance_sweep`].
 pub const SWEEP_BLOCK: usize = crate::line::LANES;
 
@@ -521,12 +529,8 @@ fn max_fast<T: Real>(a: T, b: T) -> T {
 #[inline(always)]
 fn ratio_fast<T: Real>(n: Cx<T>, d: Cx<T>) -> Result<Impedance<T>> {
     if ratio_fast_ok(n.re, n.im, d.re, d.im) {
-        let k = T::one() / (d.re * d.re + d.im * d.im);
-        let q = Cx::new(
-            (n.re * d.re + n.im * d.im) * k,
-            (n.im * d.re - n.re * d.im) * k,
-        );
-        return Ok(Impedance::Finite(complex::unsign_zero(q)));
+        let (re, im) = quotient_fast(n.re, n.im, d.re, d.im);
+        return Ok(Impedance::Finite(Cx::new(re, im)));
     }
     ratio_to_impedance(n, d)
 }
