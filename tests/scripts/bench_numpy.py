@@ -50,8 +50,17 @@ import numpy as np
 
 ROOT = os.path.normpath(os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", ".."))
 PROBE = os.path.join(ROOT, "target", "release", "examples", "perf_probe")
-NATIVE_PROBE = os.path.join(ROOT, "target", "native", "release", "examples", "perf_probe")
-NATIVE512_PROBE = os.path.join(ROOT, "target", "native512", "release", "examples", "perf_probe")
+# Extra probes of --native: (target dir under target/, RUSTFLAGS, row label).
+NATIVE_BUILD = ("native", "-C target-cpu=native", "zin, built with target-cpu=native")
+WIDE_BUILD = (
+    "native512",
+    "-C target-cpu=native -C target-feature=-prefer-256-bit",
+    "zin, native + 512-bit vectors",
+)
+
+
+def probe_in(target_dir):
+    return os.path.join(ROOT, "target", target_dir, "release", "examples", "perf_probe")
 
 
 def cpu_has_avx512f():
@@ -237,19 +246,16 @@ def main():
     subprocess.run(
         ["cargo", "build", "--release", "-q", "-p", "echoline", "--example", "perf_probe"], cwd=ROOT, check=True
     )
-    native = "--native" in sys.argv
-    wide = native and cpu_has_avx512f()
-    builds = [("native", "-C target-cpu=native")] if native else []
-    if wide:
-        builds.append(("native512", "-C target-cpu=native -C target-feature=-prefer-256-bit"))
-    for target_dir, flags in builds:
+    builds = []
+    if "--native" in sys.argv:
+        builds = [NATIVE_BUILD] + ([WIDE_BUILD] if cpu_has_avx512f() else [])
+    for target_dir, flags, _ in builds:
         subprocess.run(
             ["cargo", "build", "--release", "-q", "-p", "echoline", "--example", "perf_probe"]
             + ["--target-dir", os.path.join(ROOT, "target", target_dir)],
             cwd=ROOT,
             check=True,
             env={**os.environ, "RUSTFLAGS": flags},
-            stderr=subprocess.DEVNULL if target_dir == "native512" else None,
         )
     env = {k: v for k, v in os.environ.items() if k not in ("OPENBLAS_CORETYPE", "OPENBLAS_L2_SIZE")}
     load_before = os.getloadavg()[0]
@@ -278,16 +284,10 @@ def main():
     coax64 = rust("zincoax64", ZIN_POINTS, repeats)
     coax32 = rust("zincoax32", ZIN_POINTS, repeats)
     print(f"{'zin, 3 coax sections (Rust only)':36s} {'-':>11s} {coax64:10.1f} {coax32:10.1f}")
-    if native:
-        n64 = rust("zin64", ZIN_POINTS, repeats, NATIVE_PROBE)
-        n32 = rust("zin32", ZIN_POINTS, repeats, NATIVE_PROBE)
-        label = "zin, built with target-cpu=native"
+    for target_dir, _, label in builds:
+        n64 = rust("zin64", ZIN_POINTS, repeats, probe_in(target_dir))
+        n32 = rust("zin32", ZIN_POINTS, repeats, probe_in(target_dir))
         print(f"{label:36s} {npres['zin']:11.1f} {n64:10.1f} {n32:10.1f} {npres['zin'] / n64:14.1f}x")
-    if wide:
-        w64 = rust("zin64", ZIN_POINTS, repeats, NATIVE512_PROBE)
-        w32 = rust("zin32", ZIN_POINTS, repeats, NATIVE512_PROBE)
-        label = "zin, native + 512-bit vectors"
-        print(f"{label:36s} {npres['zin']:11.1f} {w64:10.1f} {w32:10.1f} {npres['zin'] / w64:14.1f}x")
     print(f"load average after: {os.getloadavg()[0]:.2f}")
     ok = ratios["zin"] >= 8.0
     print("PASS" if ok else "FAIL", f"(issue 2 target: rust f64 zin >= 8x faster than numpy; got {ratios['zin']:.1f}x)")
